@@ -1,0 +1,3 @@
+from ignite.cli import main
+
+main()

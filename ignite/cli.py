@@ -1,0 +1,194 @@
+"""The `ignite` command line: a thin layer that maps errors to exit codes.
+
+Exit codes: 0 ran clean, 1 a finding at or above --fail-on, 2 usage (or an output
+file exists without --force), 3 an invalid room or rule file.
+"""
+
+from __future__ import annotations
+
+import json
+import sys
+from pathlib import Path
+from typing import NoReturn
+
+import click
+
+from ignite import __version__
+
+EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
+LEVELS = ("high", "medium", "low", "note", "never")
+CAUTION = (
+    "The figures support, and never replace, local codes, the manufacturer's instructions "
+    "and licensed professional judgement."
+)
+
+rules_option = click.option(
+    "--rules",
+    "rules_dir",
+    type=click.Path(file_okay=False, path_type=Path),
+    default=None,
+    help="Folder of rule files to use instead of the packaged rules/.",
+)
+fail_on_option = click.option(
+    "--fail-on",
+    type=click.Choice(LEVELS),
+    default="never",
+    show_default=True,
+    help="Exit 1 when a finding is at or above this severity.",
+)
+
+
+def _say(message: str) -> None:
+    click.echo(message, err=True)
+
+
+def _exit(code: int) -> NoReturn:
+    sys.exit(code)
+
+
+def _open_rules(rules_dir: Path | None):  # type: ignore[no-untyped-def]
+    from ignite.errors import RuleFileError
+    from ignite.pipeline import open_rulebook
+
+    try:
+        return open_rulebook(rules_dir)
+    except RuleFileError as exc:
+        _say(f"ignite: invalid rule file(s):\n{exc}")
+        _exit(EXIT_INVALID)
+
+
+def _reaches(severity: str, fail_on: str) -> bool:
+    return fail_on != "never" and LEVELS.index(severity) <= LEVELS.index(fail_on)
+
+
+@click.group(
+    help=f"Fire and static-ignition sums for operating theatres, from a YAML room file.\n\n{CAUTION}",
+    epilog="Exit codes: 0 clean, 1 findings at or above --fail-on, 2 usage, 3 invalid room or rule file.",
+)
+@click.version_option(__version__, prog_name="ignite")
+def main() -> None:
+    pass
+
+
+@main.command(help="Compute and print the results and findings of one or more rooms.")
+@click.argument("rooms", nargs=-1, required=True, type=click.Path(path_type=Path))
+@click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True)
+@fail_on_option
+@rules_option
+def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | None) -> None:
+    from ignite.errors import InputError
+    from ignite.pipeline import run_room
+    from ignite.textreport import render_text
+
+    book = _open_rules(rules_dir)
+    invalid = reached = False
+    records = []
+    for path in rooms:
+        try:
+            results = run_room(path, book)
+        except InputError as exc:
+            _say(str(exc))
+            _say(f"ignite: {path}: {len(exc.problems)} problem(s); room not assessed")
+            invalid = True
+            continue
+        for warning in results.warnings:
+            _say(f"warning: {warning}")
+        reached = reached or any(_reaches(f.severity, fail_on) for f in results.findings)
+        if fmt == "json":
+            record = results.to_record()
+            record["caution"] = CAUTION
+            records.append(record)
+        else:
+            click.echo(render_text(results))
+    if fmt == "json" and records:
+        click.echo(json.dumps(records[0] if len(rooms) == 1 else records, indent=2, ensure_ascii=False))
+    _exit(EXIT_INVALID if invalid else EXIT_FINDINGS if reached else EXIT_CLEAN)
+
+
+@main.command(help="Write the PDF worksheet of one or more rooms.")
+@click.argument("rooms", nargs=-1, required=True, type=click.Path(path_type=Path))
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(path_type=Path),
+    default=None,
+    help="PDF file (one room) or folder. Default: output/<room id>-<date>.pdf",
+)
+@click.option("--force", is_flag=True, help="Replace an existing worksheet.")
+@click.option("--paper", type=click.Choice(["a4", "letter"], case_sensitive=False), default="a4", show_default=True)
+@fail_on_option
+@rules_option
+def assess(
+    rooms: tuple[Path, ...], output: Path | None, force: bool, paper: str, fail_on: str, rules_dir: Path | None
+) -> None:
+    from ignite.errors import InputError, OutputExistsError
+    from ignite.pipeline import write_room_worksheet
+
+    book = _open_rules(rules_dir)
+    invalid = reached = exists = False
+    if output is not None and len(rooms) > 1 and output.suffix.lower() == ".pdf":
+        raise click.UsageError("with several rooms, -o names a folder, not a .pdf file")
+    for path in rooms:
+        try:
+            results, written = write_room_worksheet(path, book, output, force=force, paper=paper)
+        except InputError as exc:
+            _say(str(exc))
+            _say(f"ignite: {path}: {len(exc.problems)} problem(s); no worksheet written")
+            invalid = True
+            continue
+        except OutputExistsError as exc:
+            _say(f"ignite: {exc}")
+            exists = True
+            continue
+        for warning in results.warnings:
+            _say(f"warning: {warning}")
+        reached = reached or any(_reaches(f.severity, fail_on) for f in results.findings)
+        worst = results.worst_severity() or "none"
+        click.echo(f"{written}  ({len(results.findings)} findings, worst: {worst})")
+    _say(CAUTION)
+    _exit(EXIT_INVALID if invalid else EXIT_USAGE if exists else EXIT_FINDINGS if reached else EXIT_CLEAN)
+
+
+@main.command("rules", help="List every rule and value in force with its threshold, source and flag.")
+@click.argument("rule_id", required=False)
+@rules_option
+def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
+    from ignite.rulebook import describe
+
+    book = _open_rules(rules_dir)
+    entries = list(book.entries.values())
+    if rule_id is not None:
+        entries = [e for e in entries if e.id == rule_id or e.id.startswith(rule_id + ".")]
+        if not entries:
+            raise click.UsageError(f"no rule or value with id {rule_id!r}; `ignite rules` lists them all")
+    click.echo(f"Rules in force: {book.directory}  (sha256 {book.digest[:16]}…)")
+    kind = None
+    for entry in entries:
+        if entry.kind != kind:
+            kind = entry.kind
+            click.echo(f"\n[{kind}]")
+        click.echo(f"{entry.id}: {entry.title}")
+        threshold = describe(entry)
+        if entry.kind == "checks":
+            threshold = f"{entry.get('severity')} when {entry.get('reads')} {entry.get('test')} " + threshold
+        if threshold:
+            click.echo(f"    {threshold}")
+        click.echo(f"    source: {entry.source} [{entry.flag}]")
+        if entry.note:
+            click.echo(f"    note: {entry.note}")
+
+
+@main.command(help="Write a commented template room file that loads cleanly.")
+@click.argument("path", type=click.Path(dir_okay=False, path_type=Path))
+@click.option("--force", is_flag=True, help="Replace an existing file.")
+def new(path: Path, force: bool) -> None:
+    from ignite.template import TEMPLATE
+
+    if path.exists() and not force:
+        _say(f"ignite: {path} exists; use --force to overwrite it")
+        _exit(EXIT_USAGE)
+    path.parent.mkdir(parents=True, exist_ok=True)
+    temporary = path.with_name(f".{path.name}.tmp")
+    temporary.write_text(TEMPLATE, encoding="utf-8")
+    temporary.replace(path)
+    click.echo(str(path))

@@ -1,0 +1,343 @@
+"""(rules, room, results) -> findings. Never prints; never raises on a hazard.
+
+Each check in rules/ reads one named result. `RESULTS` below maps each name to its
+dimension and to a function giving the items it is measured on: one per subject
+(the floor, each person and trolley, each case), with the context its mitigation
+texts may quote.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Iterator, Mapping
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+from ignite.formatting import format_duration, format_si
+from ignite.model import Room
+from ignite.physics import electrostatics
+from ignite.results import Amount, ChargeResult, Finding, Results, severity_rank
+from ignite.rulebook import Entry, Limit, Rulebook, limit_dimension
+
+UNITS = {
+    "resistance": "Ω",
+    "current": "A",
+    "voltage": "V",
+    "energy": "J",
+    "time": "s",
+    "fraction": "fraction",
+    "flag": "",
+    "count": "",
+}
+
+
+@dataclass(frozen=True)
+class Item:
+    subject: str
+    value: float | bool | None
+    context: Mapping[str, Any] = field(default_factory=dict)
+
+
+@dataclass
+class Scope:
+    """Everything a result function may look at."""
+
+    room: Room
+    results: Results
+    book: Rulebook
+    window: Entry | None
+
+
+ResultFn = Callable[[Scope], Iterator[Item]]
+RESULTS: dict[str, tuple[str, ResultFn]] = {}
+
+
+def result(name: str, dimension: str) -> Callable[[ResultFn], ResultFn]:
+    def register(fn: ResultFn) -> ResultFn:
+        RESULTS[name] = (dimension, fn)
+        return fn
+
+    return register
+
+
+def known_results() -> dict[str, str]:
+    """Result names a check may read, with their dimension (for the rule loader)."""
+    return {name: dim for name, (dim, _) in RESULTS.items()}
+
+
+# --- results the checks read -----------------------------------------------------
+
+
+def _floor_context(scope: Scope) -> dict[str, Any]:
+    fl = scope.results.floor
+    low, high = fl.window_low_ohm, fl.window_high_ohm
+    outside_low = sum(1 for i in fl.readings_outside if low is not None and fl.readings_ohm[i] <= low)
+    let_go = scope.book.value("shock.let_go")
+    floor_for_let_go = max(fl.touch_voltage_V / let_go - fl.body_impedance_ohm, 0.0)
+    return {
+        "count": len(fl.readings_ohm),
+        "outside_low": outside_low,
+        "outside_high": len(fl.readings_outside) - outside_low,
+        "shock_path": f"{format_si(fl.touch_voltage_V, 'V')} across {format_si(fl.shock_path_ohm, 'Ω')}",
+        "shock_note": fl.shock_note,
+        "floor_for_let_go": format_si(floor_for_let_go, "Ω"),
+        "rh_advice_no_spark": _min_rh_text(scope, scope.results.no_spark_voltage_V),
+    }
+
+
+@result("floor.lowest_reading", "resistance")
+def _floor_lowest(scope: Scope) -> Iterator[Item]:
+    yield Item("floor", scope.results.floor.min_ohm, _floor_context(scope))
+
+
+@result("floor.highest_reading", "resistance")
+def _floor_highest(scope: Scope) -> Iterator[Item]:
+    yield Item("floor", scope.results.floor.max_ohm, _floor_context(scope))
+
+
+@result("floor.mean_reading", "resistance")
+def _floor_mean(scope: Scope) -> Iterator[Item]:
+    fl = scope.results.floor
+    needed = scope.window.get("mean_min_readings", 1) if scope.window else 1
+    if len(fl.readings_ohm) >= needed:
+        yield Item("floor", fl.mean_ohm, _floor_context(scope))
+
+
+@result("floor.shock_current", "current")
+def _shock_current(scope: Scope) -> Iterator[Item]:
+    yield Item("floor (person touching a live enclosure)", scope.results.floor.shock_current_A, _floor_context(scope))
+
+
+def _charges(scope: Scope) -> Iterator[ChargeResult]:
+    yield from scope.results.people
+    yield from scope.results.trolleys
+
+
+@result("charge.body_voltage", "voltage")
+def _body_voltage(scope: Scope) -> Iterator[Item]:
+    for charge in _charges(scope):
+        yield Item(charge.label, charge.body_voltage_V, _charge_context(scope, charge))
+
+
+@result("charge.spark_energy", "energy")
+def _spark_energy(scope: Scope) -> Iterator[Item]:
+    for charge in _charges(scope):
+        yield Item(charge.label, charge.spark_energy_J, _charge_context(scope, charge))
+
+
+@result("charge.system_resistance", "resistance")
+def _system_resistance(scope: Scope) -> Iterator[Item]:
+    for charge in scope.results.people:
+        yield Item(charge.label, charge.leak_resistance_ohm, _charge_context(scope, charge))
+
+
+@result("room.lowest_mie", "energy")
+def _room_lowest_mie(scope: Scope) -> Iterator[Item]:
+    yield Item("room", scope.results.lowest_site_mie_J, {})
+
+
+def _min_rh_text(scope: Scope, voltage: float) -> str:
+    """Advice on humidity that keeps the walking voltage at or below `voltage`."""
+    curve = _saturation_points(scope)
+    rh = electrostatics.min_rh_for_voltage(voltage, curve)
+    if rh is None:
+        return (
+            f"Humidity alone cannot do it: the humidity table still gives {format_si(curve[-1][1], 'V')} "
+            f"at {curve[-1][0]:.0%} RH, its highest point."
+        )
+    if rh <= curve[0][0]:
+        return "Humidity is not the limiting factor here (any RH in the table keeps the voltage low enough)."
+    return f"Keep RH at or above {rh:.0%} (humidity table), where the ventilation plant can hold it."
+
+
+def _saturation_points(scope: Scope) -> list[tuple[float, float]]:
+    from ignite.calculations import saturation_curve_for
+
+    return list(saturation_curve_for(scope.room.floor.finish, scope.book).get("points"))
+
+
+def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
+    res = scope.results
+    gen = scope.book.value("charge.generation_current")
+    no_spark = res.no_spark_voltage_V
+    floor_max = res.floor.max_ohm
+    mie = res.lowest_site_mie_J
+    mie_fuel = res.lowest_site_mie_fuel
+    v_mie = electrostatics.voltage_for_energy(mie, charge.capacitance_F) if mie else None
+
+    def leak_text(v_limit: float, what: str) -> str:
+        if charge.kind == "person":
+            r = electrostatics.max_footwear_resistance(v_limit, gen, floor_max)
+            if r is None:
+                return (f"The floor alone ({format_si(floor_max, 'Ω')} at its highest) is too resistive to keep "
+                        f"{charge.label} below {what}: restore the floor.")
+            return (f"Footwear of at most {format_si(r, 'Ω')} through the soles (with the floor's highest reading) "
+                    f"keeps {charge.label} below {what}.")
+        r_total = electrostatics.max_leak_resistance(v_limit, gen)
+        path = r_total - floor_max
+        if path <= 0:
+            return f"The floor alone is too resistive to keep the {charge.label} below {what}: restore the floor."
+        return (f"A castor or drag-chain path of at most {format_si(path, 'Ω')} to the floor keeps the "
+                f"{charge.label} below {what}.")
+
+    context: dict[str, Any] = {
+        "body_voltage": format_si(charge.body_voltage_V, "V"),
+        "spark_energy": format_si(charge.spark_energy_J, "J"),
+        "leak_path": format_si(charge.leak_resistance_ohm, "Ω"),
+        "settle_time": format_duration(charge.settle_time_s),
+        "lowest_mie": format_si(mie, "J"),
+        "mie_fuel": mie_fuel or "no fuel in the rules' table",
+        "rh_advice_no_spark": _min_rh_text(scope, no_spark),
+        "leak_mitigation_no_spark": leak_text(no_spark, f"the no-spark voltage ({format_si(no_spark, 'V')})"),
+    }
+    if v_mie is not None:
+        limit = min(v_mie, charge.saturation_voltage_V)
+        context["rh_advice_mie"] = _min_rh_text(scope, v_mie)
+        context["leak_mitigation_mie"] = leak_text(
+            max(limit, no_spark) if v_mie > no_spark else no_spark,
+            f"a spark of {format_si(mie, 'J')}" if v_mie > no_spark else "the no-spark voltage",
+        )
+    if scope.window is not None and scope.window.has("walking_voltage_high"):
+        context["leak_mitigation_esd"] = leak_text(scope.window.get("walking_voltage_high"), "the ESD walking-voltage limit")
+    return context
+
+
+# --- evaluation ------------------------------------------------------------------
+
+
+def evaluate(book: Rulebook, room: Room, results: Results) -> Results:
+    """Results with the findings of every check, worst first."""
+    window = book.entries.get(room.floor.criteria)
+    scope = Scope(room, results, book, window)
+    findings: list[Finding] = []
+    for check in book.of_kind("checks"):
+        findings.extend(_run_check(check, scope))
+    findings = _keep_worst_in_groups(findings, book)
+    findings.sort(key=lambda f: (severity_rank(f.severity), f.rule, f.subject))
+    return replace(results, findings=tuple(findings))
+
+
+def _limit_value(limit: Limit, scope: Scope) -> tuple[float | None, str, str]:
+    """(SI value or None when the limit does not apply, source, flag)."""
+    if limit.kind == "quantity" and limit.value is not None:
+        return limit.value.value, limit.value.source, limit.value.flag
+    if limit.kind == "param":
+        entry = scope.book.entry(limit.ref)
+        sourced = entry.sourced("value")
+        return sourced.value, sourced.source, sourced.flag
+    if limit.kind == "window":
+        window = scope.window
+        if window is None or not window.has(limit.ref):
+            return None, "", ""
+        if limit.ref == "low":
+            from ignite.calculations import window_limits
+
+            low, _ = window_limits(window, scope.room.room.mains.voltage)
+            sourced = window.sourced("low")
+            return low, sourced.source, sourced.flag
+        sourced = window.sourced(limit.ref)
+        return sourced.value, sourced.source, sourced.flag
+    items = list(RESULTS[limit.ref][1](scope))
+    value = items[0].value if items else None
+    return (None if value is None else float(value)), "", ""
+
+
+def _holds(test: str, value: float, limit: float, inclusive_outside: bool | None) -> bool:
+    if inclusive_outside is not None:  # window limits: the window says whether equality is outside
+        if test in ("below", "at-or-below"):
+            return value <= limit if inclusive_outside else value < limit
+        return value >= limit if inclusive_outside else value > limit
+    return {
+        "above": value > limit,
+        "at-or-above": value >= limit,
+        "below": value < limit,
+        "at-or-below": value <= limit,
+    }[test]
+
+
+_COMPARISON_WORDS = {"above": "above", "at-or-above": "at or above", "below": "below", "at-or-below": "at or below"}
+
+
+def _run_check(check: Entry, scope: Scope) -> Iterator[Finding]:
+    dimension, fn = RESULTS[check.get("reads")]
+    test = check.get("test")
+    limit: Limit | None = check.get("limit")
+    limit_value: float | None = None
+    source, flag = check.source, check.flag
+    inclusive_outside: bool | None = None
+    if limit is not None:
+        limit_value, limit_source, limit_flag = _limit_value(limit, scope)
+        if limit_value is None:
+            return
+        if limit_source:
+            source, flag = limit_source, limit_flag
+        if limit.kind == "window" and scope.window is not None:
+            if limit.ref == "low":
+                inclusive_outside = not scope.window.get("low_inclusive", False)
+            elif limit.ref == "high":
+                inclusive_outside = not scope.window.get("high_inclusive", True)
+            else:
+                inclusive_outside = test in ("at-or-above", "at-or-below")
+    unit = UNITS[dimension]
+    for item in fn(scope):
+        if item.value is None:
+            continue
+        if test == "is-true":
+            if not item.value:
+                continue
+            measured, limit_amount, comparison = Amount(1.0, ""), Amount(None, ""), "present"
+        else:
+            assert limit_value is not None
+            if not _holds(test, float(item.value), limit_value, inclusive_outside):
+                continue
+            comparison = _COMPARISON_WORDS[test]
+            measured, limit_amount = Amount(float(item.value), unit), Amount(limit_value, unit)
+        context = _SafeContext(item.context)
+        yield Finding(
+            rule=check.id,
+            title=check.title,
+            severity=check.get("severity"),
+            subject=item.subject,
+            measured=measured,
+            limit=limit_amount,
+            comparison=comparison,
+            source=source,
+            flag=flag,
+            mitigations=tuple(
+                text for text in (m.format_map(context).strip() for m in check.get("mitigations", ())) if text
+            ),
+            detail=check.get("detail", "").format_map(context).strip(),
+        )
+
+
+class _SafeContext(dict):  # type: ignore[type-arg]
+    """Missing placeholders print as an honest gap rather than raising."""
+
+    def __missing__(self, key: str) -> str:
+        return "(not computed)"
+
+
+def _keep_worst_in_groups(findings: list[Finding], book: Rulebook) -> list[Finding]:
+    best: dict[tuple[str, str], Finding] = {}
+    kept: list[Finding] = []
+    for finding in findings:
+        group = book.entry(finding.rule).get("group")
+        if not group:
+            kept.append(finding)
+            continue
+        key = (group, finding.subject)
+        current = best.get(key)
+        if current is None or severity_rank(finding.severity) < severity_rank(current.severity):
+            best[key] = finding
+    return kept + list(best.values())
+
+
+def check_dimensions(book: Rulebook) -> list[str]:
+    """Checks whose limit dimension differs from what they read (for tests)."""
+    known = known_results()
+    bad = []
+    for check in book.of_kind("checks"):
+        limit = check.get("limit")
+        if limit is not None and limit_dimension(limit, book.entries, known) not in (None, known[check.get("reads")]):
+            bad.append(check.id)
+    return bad

@@ -1,0 +1,264 @@
+"""What `ignite` computes for one room, in SI units, and its JSON record.
+
+The record's keys are a contract (see the project's room-file guide): keys may be
+added, never renamed or dropped. Field names here follow the record's suffixes:
+`_ohm`, `_V`, `_A`, `_C`, `_F`, `_J`, `_s`, `_K`, `_m3`, `_m3_per_s`, `_fraction`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import asdict, dataclass, field
+from typing import Any
+
+SEVERITIES = ("high", "medium", "low", "note")
+"""Severities, worst first."""
+
+
+def severity_rank(severity: str) -> int:
+    """0 for the worst severity (`high`), larger for milder ones."""
+    return SEVERITIES.index(severity)
+
+
+@dataclass(frozen=True)
+class Amount:
+    """A number with the unit it is expressed in (SI, as in the record)."""
+
+    value: float | None
+    unit: str
+
+
+@dataclass(frozen=True)
+class Finding:
+    rule: str  # stable identifier from rules/
+    title: str
+    severity: str  # one of SEVERITIES
+    subject: str  # what the finding is about: "floor", "scrub practitioner", "case 1", ...
+    measured: Amount
+    limit: Amount
+    comparison: str  # how measured stands against limit, in words: "above", "at or below", ...
+    source: str
+    flag: str  # published | memory | common practice
+    mitigations: tuple[str, ...] = ()
+    detail: str = ""  # one sentence of explanation, already formatted
+
+
+@dataclass(frozen=True)
+class FloorResult:
+    readings_ohm: tuple[float, ...]
+    min_ohm: float
+    max_ohm: float
+    mean_ohm: float
+    geometric_mean_ohm: float
+    criteria: str
+    window_low_ohm: float | None  # None: the window sets no lower limit
+    window_high_ohm: float | None
+    passed: bool
+    shock_path_ohm: float  # lowest reading + body impedance, no footwear credit
+    shock_current_A: float
+    # additions to the contract
+    test_voltage_V: float = 0.0
+    readings_outside: tuple[int, ...] = ()  # indices of readings outside the window
+    point_to_point_ohm: tuple[float, ...] = ()
+    body_impedance_ohm: float = 0.0
+    touch_voltage_V: float = 0.0
+    supply_system: str = "earthed"
+    shock_note: str = ""  # e.g. the isolated-supply (second fault) statement
+
+
+@dataclass(frozen=True)
+class ChargeResult:
+    """A person (role) or a trolley treated as a leaky charged capacitor."""
+
+    kind: str  # "person" | "trolley"
+    label: str  # role or name
+    count: int
+    footwear: str  # class name, "measured", or "" for trolleys
+    leak_resistance_ohm: float
+    capacitance_F: float
+    time_constant_s: float
+    body_voltage_V: float
+    stored_charge_C: float
+    spark_energy_J: float
+    settle_time_s: float
+    saturation_voltage_V: float = 0.0
+    generation_limited: bool = True  # True: I_g*R set the voltage; False: saturation did
+
+
+@dataclass(frozen=True)
+class ComponentResult:
+    name: str
+    cas: str
+    mole_fraction: float
+    activity_coefficient: float
+    flammable: bool
+
+
+@dataclass(frozen=True)
+class PreparationResult:
+    id: str
+    label: str
+    flash_point_K: float | None
+    lfl_fraction: float | None
+    saturated_vapour_fraction: float | None
+    film_temperature_K: float
+    components: tuple[ComponentResult, ...] = ()
+    methods: tuple[str, ...] = ()  # data methods and models named, e.g. "IEC 60079-20-1 (LFL)"
+    notes: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class Triad:
+    oxidant: bool
+    fuel: bool
+    ignition: bool
+
+    @property
+    def complete(self) -> bool:
+        return self.oxidant and self.fuel and self.ignition
+
+
+@dataclass(frozen=True)
+class CaseResult:
+    id: str
+    procedure: str
+    site: str
+    oxidant_fraction: float  # steady state at the site while oxygen flows
+    oxygen_enriched: bool
+    washout_s: float  # after oxygen stops, to the enriched limit
+    oxidant_at_activation_fraction: float
+    mie_J: float | None  # lowest MIE of the fuels present, at that oxidant
+    drying_time_s: float | None
+    pocket_vapour_peak_fraction_of_lfl: float | None
+    safe_draping_after_s: float | None
+    materials_sustain_burning: tuple[str, ...]
+    triad: Triad
+    # additions to the contract
+    mie_fuel: str = ""  # which fuel sets mie_J
+    buildup_s: float | None = None  # time to reach the enriched limit after oxygen starts
+    required_stop_s: float | None = None  # oxygen stop before activation to reach the limit
+    largest_spark_J: float | None = None
+    materials_holding_charge: tuple[str, ...] = ()
+    ignition_sources: tuple[str, ...] = ()
+    draping_after_s: float | None = None
+    first_activation_after_s: float | None = None
+    stop_before_activation_s: float | None = None
+    oxygen_curve: tuple[tuple[float, float], ...] = ()  # (s, oxidant fraction)
+    film_curve: tuple[tuple[float, float], ...] = ()  # (s, flammable liquid left, fraction)
+    notes: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class RoomInfo:
+    id: str
+    name: str
+    purpose: str
+    assessed_on: str  # ISO date
+    assessor: str
+
+
+@dataclass(frozen=True)
+class EnvironmentResult:
+    temperature_K: float
+    relative_humidity_fraction: float
+    air_changes_per_s: float
+    volume_m3: float
+    mains_voltage_V: float
+    mains_frequency_Hz: float
+    mains_system: str
+    room_oxidant_rise_fraction: float = 0.0  # whole-room enrichment from open delivery
+
+
+@dataclass(frozen=True)
+class Results:
+    tool_version: str
+    input_sha256: str
+    input_name: str  # file name of the room file
+    rules_digest: str  # SHA-256 over the rule files in force
+    room: RoomInfo
+    environment: EnvironmentResult
+    floor: FloorResult
+    people: tuple[ChargeResult, ...]
+    trolleys: tuple[ChargeResult, ...]
+    preparations: tuple[PreparationResult, ...]
+    cases: tuple[CaseResult, ...]
+    findings: tuple[Finding, ...] = ()
+    warnings: tuple[str, ...] = ()  # accepted but unusual input, stated on every output
+    lowest_site_mie_J: float | None = None
+    lowest_site_mie_fuel: str = ""  # the fuel (and where) that sets lowest_site_mie_J
+    largest_spark_J: float | None = None
+    no_spark_voltage_V: float = 330.0
+    # chart data: per person/trolley label, (RH fraction, body voltage V) at the room's leak path
+    voltage_vs_rh: tuple[tuple[str, tuple[tuple[float, float], ...]], ...] = ()
+
+    def worst_severity(self) -> str | None:
+        if not self.findings:
+            return None
+        return min((f.severity for f in self.findings), key=severity_rank)
+
+    def to_record(self) -> dict[str, Any]:
+        """The JSON result record of the contract (plus optional additions)."""
+        return {
+            "format": 1,
+            "tool_version": self.tool_version,
+            "input_sha256": self.input_sha256,
+            "rules_sha256": self.rules_digest,
+            "room": asdict(self.room),
+            "environment": asdict(self.environment),
+            "floor": _clean(asdict(self.floor)),
+            "people": [_charge_record(p, "role") for p in self.people],
+            "trolleys": [_charge_record(t, "name") for t in self.trolleys],
+            "preparations": [_clean(asdict(p)) for p in self.preparations],
+            "cases": [_case_record(c) for c in self.cases],
+            "findings": [_clean(asdict(f)) for f in self.findings],
+            "warnings": list(self.warnings),
+        }
+
+
+def _charge_record(charge: ChargeResult, label_key: str) -> dict[str, Any]:
+    record = _clean(asdict(charge))
+    record[label_key] = record.pop("label")
+    return record
+
+
+def _case_record(case: CaseResult) -> dict[str, Any]:
+    record = _clean(asdict(case))
+    record["materials_sustain_burning"] = list(case.materials_sustain_burning)
+    return record
+
+
+def _clean(value: Any) -> Any:
+    """Tuples to lists, recursively, so the record is plain JSON."""
+    if isinstance(value, dict):
+        return {k: _clean(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_clean(v) for v in value]
+    return value
+
+
+@dataclass
+class RunOutcome:
+    """What one room produced: results, or the problems that stopped it."""
+
+    path: str
+    results: Results | None = None
+    problems: list[str] = field(default_factory=list)
+
+
+@dataclass(frozen=True)
+class RuleRow:
+    """One line of the rules appendix: the same fields `ignite rules` prints."""
+
+    id: str
+    kind: str  # parameters | curves | windows | footwear | fuels | materials | ignition-sources | checks
+    title: str
+    threshold: str  # the value(s), formatted with units
+    source: str
+    flag: str
+
+
+@dataclass(frozen=True)
+class MethodRef:
+    """A method used in the calculations, with its published reference."""
+
+    name: str
+    reference: str
