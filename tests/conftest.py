@@ -1,0 +1,79 @@
+"""Shared fixtures: the packaged rules and a small valid room to vary."""
+
+from __future__ import annotations
+
+import copy
+from collections.abc import Callable
+from pathlib import Path
+from typing import Any
+
+import pytest
+import yaml
+
+from ignite.pipeline import open_rulebook, vocabulary
+from ignite.rulebook import Rulebook
+
+ROOT = Path(__file__).resolve().parent.parent
+SAMPLES = sorted((ROOT / "sample_rooms").glob("*.yaml"))
+
+BASE_ROOM: dict[str, Any] = {
+    "format": 1,
+    "room": {
+        "id": "TST-1",
+        "name": "Theatre 1, Test Valley Clinic",
+        "purpose": "pre-list",
+        "assessed_on": "2026-12-01",
+        "assessor": "A. Tester",
+        "mains": {"voltage": "230 V", "frequency": "50 Hz", "system": "earthed"},
+    },
+    "environment": {
+        "temperature": "20 degC",
+        "relative_humidity": "40 %",
+        "air_changes": "20 /h",
+        "volume": "120 m^3",
+    },
+    "floor": {
+        "finish": "static-dissipative vinyl sheet",
+        "criteria": "medical-location",
+        "test_voltage": "500 V",
+        "point_to_ground": ["200 kΩ", "300 kΩ", "400 kΩ"],
+    },
+    "people": [{"role": "scrub practitioner", "count": 1, "footwear": "antistatic"}],
+    "cases": [],
+}
+
+
+@pytest.fixture(scope="session")
+def book() -> Rulebook:
+    return open_rulebook()
+
+
+@pytest.fixture
+def room_data() -> dict[str, Any]:
+    return copy.deepcopy(BASE_ROOM)
+
+
+@pytest.fixture
+def write_room(tmp_path: Path) -> Callable[[dict[str, Any]], Path]:
+    """Write room data as YAML to a temporary file and return its path."""
+
+    def write(data: dict[str, Any], name: str = "room.yaml") -> Path:
+        path = tmp_path / name
+        path.write_text(yaml.safe_dump(data, allow_unicode=True, sort_keys=False), encoding="utf-8")
+        return path
+
+    return write
+
+
+@pytest.fixture
+def assess_data(book: Rulebook, write_room: Callable[[dict[str, Any]], Path]):  # type: ignore[no-untyped-def]
+    """Room data -> evaluated Results."""
+    from ignite.pipeline import run_room
+
+    def run(data: dict[str, Any]):  # type: ignore[no-untyped-def]
+        return run_room(write_room(data), book)
+
+    return run
+
+
+__all__ = ["BASE_ROOM", "ROOT", "SAMPLES", "vocabulary"]

@@ -1,0 +1,86 @@
+"""One-line cases: this room fragment gives these findings."""
+
+from __future__ import annotations
+
+
+def rules_of(results):  # type: ignore[no-untyped-def]
+    return {f.rule for f in results.findings}
+
+
+def test_compliant_floor_and_antistatic_footwear_give_only_the_shock_note(room_data, assess_data):
+    # 230 V across 200 kΩ + 1 kΩ is 1.1 mA: above perception (0.5 mA), below let-go (10 mA)
+    assert rules_of(assess_data(room_data)) == {"shock.current-perception"}
+
+
+def test_low_reading_is_a_high_finding(room_data, assess_data):
+    room_data["floor"]["point_to_ground"] = ["200 kΩ", "40 kΩ", "400 kΩ"]
+    results = assess_data(room_data)
+    finding = next(f for f in results.findings if f.rule == "floor.reading-below-window")
+    assert finding.severity == "high"
+    assert finding.measured.value == 40e3 and finding.limit.value == 50e3
+    assert "NEK 400:710" in finding.source
+    assert not results.floor.passed
+
+
+def test_reading_equal_to_an_exclusive_lower_limit_is_outside(room_data, assess_data):
+    # medical-location: each reading must be *above* 50 kΩ
+    room_data["floor"]["point_to_ground"] = ["50 kΩ", "400 kΩ"]
+    assert "floor.reading-below-window" in rules_of(assess_data(room_data))
+
+
+def test_reading_equal_to_an_inclusive_upper_limit_is_inside(room_data, assess_data):
+    # medical-location: each reading ≤ 25 MΩ
+    room_data["floor"]["point_to_ground"] = ["25 MΩ", "400 kΩ"]
+    results = assess_data(room_data)
+    assert "floor.reading-above-window" not in rules_of(results)
+    assert results.floor.passed
+
+
+def test_high_reading_is_a_medium_finding(room_data, assess_data):
+    room_data["floor"]["point_to_ground"] = ["200 kΩ", "30 MΩ"]
+    finding = next(f for f in assess_data(room_data).findings if f.rule == "floor.reading-above-window")
+    assert finding.severity == "medium"
+
+
+def test_very_low_floor_gives_one_shock_finding_at_the_worst_level(room_data, assess_data):
+    # 230 V across 3 kΩ + 1 kΩ = 57.5 mA: at or above 50 mA (IEC 60479-1)
+    room_data["floor"]["point_to_ground"] = ["3 kΩ", "400 kΩ"]
+    shock = [f for f in assess_data(room_data).findings if f.rule.startswith("shock.")]
+    assert [f.rule for f in shock] == ["shock.current-fibrillation"]
+    assert shock[0].severity == "high"
+    # mitigation: a floor of at least U/I_let-go − R_body = 230/0.01 − 1000 = 22 kΩ
+    assert any("22 kΩ" in m for m in shock[0].mitigations)
+
+
+def test_insulating_footwear_can_spark(room_data, assess_data):
+    room_data["people"][0]["footwear"] = "insulating"
+    results = assess_data(room_data)
+    finding = next(f for f in results.findings if f.rule == "static.spark-possible")
+    # saturation on vinyl at 40 % RH is 5 kV (ESD industry table, published)
+    assert finding.measured.value == 5e3
+    # footwear ≤ (330 V / 0.1 µA) − 400 kΩ ≈ 3.3 GΩ keeps the voltage below the no-spark voltage
+    assert any("3.3 GΩ" in m for m in finding.mitigations)
+    assert results.people[0].settle_time_s > 0
+
+
+def test_esd_control_floor_checks_the_system_and_walking_voltage(room_data, assess_data):
+    room_data["floor"]["criteria"] = "esd-control"
+    rules = rules_of(assess_data(room_data))
+    # antistatic 1 GΩ + floor 400 kΩ ≥ 1 GΩ, and 0.1 µA × 1.0004 GΩ > 100 V
+    assert {"static.system-resistance", "static.walking-voltage"} <= rules
+
+
+def test_conductive_historical_average_rule(room_data, assess_data):
+    room_data["floor"]["criteria"] = "conductive-historical"
+    room_data["floor"]["point_to_ground"] = ["20 kΩ"] * 5
+    results = assess_data(room_data)
+    assert "floor.mean-below-window" in rules_of(results)
+    assert not results.floor.passed
+
+
+def test_findings_are_sorted_worst_first(room_data, assess_data):
+    room_data["floor"]["point_to_ground"] = ["3 kΩ", "30 MΩ"]
+    room_data["people"][0]["footwear"] = "insulating"
+    ranks = [f.severity for f in assess_data(room_data).findings]
+    order = ["high", "medium", "low", "note"]
+    assert ranks == sorted(ranks, key=order.index)

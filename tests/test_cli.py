@@ -1,0 +1,133 @@
+"""The command line: exit codes, stderr messages, files written."""
+
+from __future__ import annotations
+
+import json
+
+import yaml
+from click.testing import CliRunner
+
+from ignite.cli import main
+from ignite.load import load_room_text
+
+from conftest import ROOT
+
+
+def run(*args: str):  # type: ignore[no-untyped-def]
+    return CliRunner().invoke(main, list(args), catch_exceptions=False)
+
+
+def test_check_text_prints_the_floor_and_the_caution(room_data, write_room):
+    result = run("check", str(write_room(room_data)))
+    assert result.exit_code == 0
+    assert "Floor (medical-location" in result.output
+    assert "never replace" in result.output
+
+
+def test_check_json_is_the_contract_record(room_data, write_room):
+    result = run("check", str(write_room(room_data)), "--format", "json")
+    assert result.exit_code == 0
+    record = json.loads(result.stdout)
+    for key in ("format", "tool_version", "input_sha256", "room", "floor", "people", "trolleys",
+                "preparations", "cases", "findings"):
+        assert key in record
+    floor_keys = {"readings_ohm", "min_ohm", "max_ohm", "mean_ohm", "geometric_mean_ohm", "criteria",
+                  "window_low_ohm", "window_high_ohm", "passed", "shock_path_ohm", "shock_current_A"}
+    assert floor_keys <= record["floor"].keys()
+    person_keys = {"role", "leak_resistance_ohm", "capacitance_F", "time_constant_s", "body_voltage_V",
+                   "stored_charge_C", "spark_energy_J", "settle_time_s"}
+    assert person_keys <= record["people"][0].keys()
+    assert record["floor"]["min_ohm"] == 200e3
+    finding_keys = {"rule", "severity", "subject", "measured", "limit", "source", "mitigations"}
+    assert all(finding_keys <= f.keys() for f in record["findings"])
+
+
+def test_fail_on_sets_exit_code_one(room_data, write_room):
+    room_data["floor"]["point_to_ground"] = ["40 kΩ"]
+    path = str(write_room(room_data))
+    assert run("check", path).exit_code == 0
+    assert run("check", path, "--fail-on", "high").exit_code == 1
+    assert run("check", path, "--fail-on", "never").exit_code == 0
+
+
+def test_broken_room_gives_exit_three_and_every_problem(room_data, write_room):
+    room_data["environment"]["relative_humidity"] = "150 %"
+    room_data["environment"]["temperature"] = 20
+    room_data["floor"]["point_to_ground"][1] = "5 kg"
+    path = write_room(room_data, "broken.yaml")
+    result = run("check", str(path))
+    assert result.exit_code == 3
+    err = result.stderr
+    assert "broken.yaml:" in err
+    assert "environment.relative_humidity" in err
+    assert "environment.temperature" in err
+    assert "floor.point_to_ground[1]" in err
+    assert "Traceback" not in err
+
+
+def test_bad_yaml_gives_exit_three(tmp_path):
+    path = tmp_path / "bad.yaml"
+    path.write_text("room: [unclosed\n")
+    result = run("check", str(path))
+    assert result.exit_code == 3
+    assert "bad.yaml:" in result.stderr
+
+
+def test_missing_file_gives_exit_three(tmp_path):
+    result = run("check", str(tmp_path / "nowhere.yaml"))
+    assert result.exit_code == 3
+    assert "nowhere.yaml" in result.stderr
+
+
+def test_one_bad_room_does_not_stop_the_others(room_data, write_room):
+    good = write_room(room_data, "good.yaml")
+    room_data["floor"]["criteria"] = "no-such-window"
+    bad = write_room(room_data, "bad.yaml")
+    result = run("check", str(bad), str(good))
+    assert result.exit_code == 3
+    assert "Theatre 1, Test Valley Clinic" in result.stdout
+
+
+def test_usage_error_is_exit_two():
+    assert run("check").exit_code == 2
+    assert run("check", "x.yaml", "--fail-on", "sometimes").exit_code == 2
+
+
+def test_rules_lists_every_value_with_source_and_flag(book):
+    result = run("rules")
+    assert result.exit_code == 0
+    for entry in book.entries.values():
+        assert f"{entry.id}: " in result.output
+    assert result.output.count("source: ") == len(book.entries)
+
+
+def test_rules_single_id_and_unknown_id():
+    result = run("rules", "medical-location")
+    assert result.exit_code == 0 and "NEK 400:710" in result.output
+    assert run("rules", "no-such-rule").exit_code == 2
+
+
+def test_invalid_rules_folder_gives_exit_three(tmp_path, room_data, write_room):
+    rules = tmp_path / "rules"
+    rules.mkdir()
+    (rules / "checks.yaml").write_text("format: 2\nkind: checks\nentries: []\n")
+    result = run("check", str(write_room(room_data)), "--rules", str(rules))
+    assert result.exit_code == 3
+    assert "checks.yaml" in result.stderr
+
+
+def test_new_writes_a_template_that_loads_and_refuses_to_overwrite(tmp_path, book):
+    from ignite.pipeline import vocabulary
+
+    path = tmp_path / "new-room.yaml"
+    assert run("new", str(path)).exit_code == 0
+    load_room_text(path.read_text(encoding="utf-8"), str(path), vocabulary(book))
+    path.write_text("mine")
+    assert run("new", str(path)).exit_code == 2
+    assert path.read_text() == "mine"
+    assert run("new", str(path), "--force").exit_code == 0
+
+
+def test_samples_are_valid_yaml():
+    for path in (ROOT / "sample_rooms").glob("*.yaml"):
+        assert isinstance(yaml.safe_load(path.read_text(encoding="utf-8")), dict)
