@@ -97,16 +97,22 @@ def compute(room: Room, book: Rulebook) -> Results:
             lowest = case.mie_J
             lowest_fuel = f"{case.mie_fuel} at {case.oxidant_at_activation_fraction:.1%} oxidant (case {case.id})"
 
-    rise = 0.0
-    for case in room.cases:
-        if case.oxygen.delivery in ("nasal-cannula", "face-mask"):
-            rise = max(
-                rise,
-                oxygen.room_oxidant_rise(
-                    case.oxygen.flow, case.oxygen.fraction, case.oxygen.nitrous_oxide_flow,
-                    env.volume, env.air_changes, book.value("oxygen.ambient"),
-                ),
+    rise = max(
+        (
+            oxygen.room_oxidant_rise(
+                planned.oxygen.flow, planned.oxygen.fraction, planned.oxygen.nitrous_oxide_flow,
+                env.volume, env.air_changes, book.value("oxygen.ambient"),
             )
+            for planned in room.cases
+            if planned.oxygen.delivery in OPEN_DELIVERY
+        ),
+        default=0.0,
+    )
+    if rise > 0.005:
+        warnings.append(
+            f"Open oxygen raises the whole room's oxidant by {rise:.1%} at {env.air_changes * 3600:.0f} air changes/h: "
+            "not negligible; check the ventilation."
+        )
     return Results(
         tool_version=__version__,
         input_sha256=room.sha256,
@@ -383,6 +389,9 @@ def _case(
         if ox.delivery == "closed-airway":
             notes.append("Closed airway: the pocket is taken at room air (no cuff leak assumed).")
     washout = oxygen.washout_time(c_ss, enriched, pocket.volume, pocket.exchange, ambient)
+    ceiling_stop = oxygen.washout_time(
+        c_ss, book.value("oxygen.open_delivery_ceiling"), pocket.volume, pocket.exchange, ambient
+    )
     at_activation = oxygen.fraction_after_stop(c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient)
     curve = _oxygen_curve(c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout)
 
@@ -399,9 +408,10 @@ def _case(
         and ignition.holds_charge(room.environment.relative_humidity, materials[name.lower()].get("holds_charge_below_rh"))
     )
 
-    drying = peak = safe = None
+    drying = peak = safe = left_draping = left_activation = pocket_activation = None
     film_curve: tuple[tuple[float, float], ...] = ()
     fuel_at_activation = False
+    prep_flammable = False
     if case.prep is not None and case.prep.preparation in analyses:
         from ignite.physics import evaporation
 
@@ -430,6 +440,10 @@ def _case(
             assumptions=assumptions,
         )
         drying, peak, safe = outcome.drying_time_s, outcome.pocket_peak_fraction_of_lfl, outcome.safe_draping_after_s
+        left_draping = outcome.flammable_left_at_draping_fraction
+        left_activation = outcome.flammable_left_at_activation_fraction
+        pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
+        prep_flammable = any(getattr(analysis, "flammable", ()))
         film_curve = outcome.film_curve
         notes.extend(outcome.notes)
         margin = assumptions.get("pocket_margin", 0.25)
@@ -469,6 +483,15 @@ def _case(
         draping_after_s=case.draping_after,
         first_activation_after_s=case.first_activation_after,
         stop_before_activation_s=ox.stop_before_activation,
+        delivery=ox.delivery,
+        ceiling_stop_s=ceiling_stop,
+        preparation=case.prep.preparation if case.prep else "",
+        prep_flammable=prep_flammable,
+        hair=bool(case.prep and case.prep.hair),
+        pooling=bool(case.prep and case.prep.pooling),
+        flammable_left_at_draping_fraction=left_draping,
+        flammable_left_at_activation_fraction=left_activation,
+        pocket_at_activation_fraction_of_lfl=pocket_activation,
         oxygen_curve=curve,
         film_curve=film_curve,
         notes=tuple(notes),

@@ -9,11 +9,14 @@ from __future__ import annotations
 import json
 import sys
 from pathlib import Path
-from typing import NoReturn
+from typing import TYPE_CHECKING, NoReturn
 
 import click
 
 from ignite import __version__
+
+if TYPE_CHECKING:
+    from ignite.rulebook import Rulebook
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 LEVELS = ("high", "medium", "low", "note", "never")
@@ -46,7 +49,7 @@ def _exit(code: int) -> NoReturn:
     sys.exit(code)
 
 
-def _open_rules(rules_dir: Path | None):  # type: ignore[no-untyped-def]
+def _open_rules(rules_dir: Path | None) -> Rulebook:
     from ignite.errors import RuleFileError
     from ignite.pipeline import open_rulebook
 
@@ -192,3 +195,12 @@ def new(path: Path, force: bool) -> None:
     temporary.write_text(TEMPLATE, encoding="utf-8")
     temporary.replace(path)
     click.echo(str(path))
+
+
+def _register_audit() -> None:
+    from ignite.audit_cli import audit
+
+    main.add_command(audit)
+
+
+_register_audit()

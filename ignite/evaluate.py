@@ -16,7 +16,7 @@ from typing import Any
 from ignite.formatting import format_duration, format_si
 from ignite.model import Room
 from ignite.physics import electrostatics
-from ignite.results import Amount, ChargeResult, Finding, Results, severity_rank
+from ignite.results import Amount, CaseResult, ChargeResult, Finding, Results, severity_rank
 from ignite.rulebook import Entry, Limit, Rulebook, limit_dimension
 
 UNITS = {
@@ -136,6 +136,174 @@ def _room_lowest_mie(scope: Scope) -> Iterator[Item]:
     yield Item("room", scope.results.lowest_site_mie_J, {})
 
 
+def _case_subject(case: CaseResult) -> str:
+    return f"case {case.id}: {case.procedure}"
+
+
+def _case_context(scope: Scope, case: CaseResult) -> dict[str, Any]:
+    book = scope.book
+    res = scope.results
+    label_minimum = book.value("prep.label_minimum_hairless") if "prep.label_minimum_hairless" in book.entries else None
+    label_hair = book.value("prep.label_maximum_hair") if "prep.label_maximum_hair" in book.entries else None
+    allowance = book.value("materials.loi_allowance")
+    sustain = ", ".join(case.materials_sustain_burning) or "none"
+    if case.materials_sustain_burning:
+        swap = (
+            f"{sustain} would keep burning at {format_si(case.oxidant_fraction, 'fraction')} oxidant; "
+            f"where the site stays enriched, choose materials whose LOI is above "
+            f"{format_si(case.oxidant_fraction + allowance, 'fraction')}, or bring the oxidant down."
+        )
+    else:
+        swap = "No listed material would keep burning at the site's oxidant."
+    if case.required_stop_s is not None and case.required_stop_s > 0:
+        stop = (
+            f"Stop open oxygen at least {format_duration(_round_up(case.required_stop_s))} before the first "
+            f"activation (computed washout of this pocket to the enriched limit); the planned "
+            f"{format_duration(case.stop_before_activation_s)} leaves "
+            f"{format_si(case.oxidant_at_activation_fraction, 'fraction')} at the site."
+        )
+    else:
+        stop = "The site is at or below the enriched limit when the ignition source is first used."
+    if case.safe_draping_after_s is not None and case.prep_flammable:
+        wait = max(case.safe_draping_after_s, label_minimum or 0.0)
+        if case.hair and label_hair:
+            drape = (
+                f"Drape no earlier than {format_duration(_round_up(wait))} after the prep (computed), "
+                f"and follow the label: in hair, drying can take up to {format_duration(label_hair)}."
+            )
+        else:
+            drape = (
+                f"Drape no earlier than {format_duration(_round_up(wait))} after the prep (computed, and never "
+                f"before the label's {format_duration(label_minimum)})."
+            )
+    else:
+        drape = "No flammable prep in this case."
+    context: dict[str, Any] = {
+        "procedure": case.procedure,
+        "oxidant_site": format_si(case.oxidant_fraction, "fraction"),
+        "oxidant_at_activation": format_si(case.oxidant_at_activation_fraction, "fraction"),
+        "planned_stop": format_duration(case.stop_before_activation_s),
+        "required_stop": format_duration(_round_up(case.required_stop_s)),
+        "ceiling_stop": format_duration(_round_up(case.ceiling_stop_s)),
+        "stop_mitigation": stop,
+        "draping_mitigation": drape,
+        "materials_mitigation": swap,
+        "materials": sustain,
+        "holding_charge": ", ".join(case.materials_holding_charge) or "none",
+        "drying_time": format_duration(case.drying_time_s),
+        "safe_draping": format_duration(_round_up(case.safe_draping_after_s)),
+        "draping_after": format_duration(case.draping_after_s),
+        "first_activation": format_duration(case.first_activation_after_s),
+        "pocket_peak": format_si(case.pocket_vapour_peak_fraction_of_lfl, "fraction"),
+        "label_minimum": format_duration(label_minimum),
+        "label_hair": format_duration(label_hair),
+        "mie": format_si(case.mie_J, "J"),
+        "mie_fuel": case.mie_fuel or "no fuel",
+        "largest_spark": format_si(res.largest_spark_J, "J"),
+        "sources": ", ".join(case.ignition_sources) or "none planned",
+        "rh": format_si(res.environment.relative_humidity_fraction, "fraction"),
+        "triad_sides": ", ".join(
+            name for name, on in (("oxidant", case.triad.oxidant), ("fuel", case.triad.fuel),
+                                  ("ignition", case.triad.ignition)) if on
+        ),
+    }
+    return context
+
+
+def _round_up(seconds: float | None) -> float | None:
+    """Waits are given to the next 15 s (to the next minute past 10 min): never shorter than computed."""
+    if seconds is None or math.isinf(seconds):
+        return seconds
+    step = 60.0 if seconds > 600 else 15.0
+    return math.ceil(seconds / step - 1e-9) * step
+
+
+def _cases(scope: Scope) -> Iterator[tuple[CaseResult, dict[str, Any]]]:
+    for case in scope.results.cases:
+        yield case, _case_context(scope, case)
+
+
+@result("case.oxidant_at_activation", "fraction")
+def _oxidant_at_activation(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        yield Item(_case_subject(case), case.oxidant_at_activation_fraction, context)
+
+
+@result("case.open_delivery_oxidant", "fraction")
+def _open_delivery_oxidant(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        if case.delivery in ("nasal-cannula", "face-mask"):
+            yield Item(_case_subject(case), case.oxidant_fraction, context)
+
+
+@result("case.triad_complete", "flag")
+def _triad_complete(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        yield Item(_case_subject(case), case.triad.complete, context)
+
+
+@result("case.draping_after", "time")
+def _draping_after(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        yield Item(_case_subject(case), case.draping_after_s, context)
+
+
+@result("case.first_activation_after", "time")
+def _first_activation_after(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        yield Item(_case_subject(case), case.first_activation_after_s, context)
+
+
+@result("case.drying_time", "time")
+def _drying_time(scope: Scope) -> Iterator[Item]:
+    """Drying time of a flammable prep on plain skin (hair and pooling read their own result)."""
+    for case, context in _cases(scope):
+        if case.prep_flammable and not (case.hair or case.pooling):
+            yield Item(_case_subject(case), case.drying_time_s, context)
+
+
+@result("case.drying_time_hair_or_pooling", "time")
+def _drying_time_hair(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        if case.prep_flammable and (case.hair or case.pooling):
+            yield Item(_case_subject(case), case.drying_time_s, context)
+
+
+@result("case.flammable_draping_after", "time")
+def _flammable_draping_after(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        if case.prep_flammable:
+            yield Item(_case_subject(case), case.draping_after_s, context)
+
+
+@result("case.pooled_flammable_prep", "flag")
+def _pooled(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        if case.prep_flammable:
+            yield Item(_case_subject(case), case.pooling, context)
+
+
+@result("case.pocket_peak", "fraction")
+def _pocket_peak(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        yield Item(_case_subject(case), case.pocket_vapour_peak_fraction_of_lfl, context)
+
+
+@result("case.enriched_materials_burning", "flag")
+def _enriched_materials(scope: Scope) -> Iterator[Item]:
+    for case, context in _cases(scope):
+        if case.oxygen_enriched:
+            yield Item(_case_subject(case), bool(case.materials_sustain_burning), context)
+
+
+@result("case.site_mie_with_charged_materials", "energy")
+def _site_mie_charged(scope: Scope) -> Iterator[Item]:
+    """Site MIE where some of the case's materials hold charge at the room's RH and a fuel is present."""
+    for case, context in _cases(scope):
+        if case.materials_holding_charge and case.prep_flammable and case.mie_J is not None:
+            yield Item(_case_subject(case), case.mie_J, context)
+
+
 def _min_rh_text(scope: Scope, voltage: float) -> str:
     """Advice on humidity that keeps the walking voltage at or below `voltage`."""
     curve = _saturation_points(scope)
@@ -242,6 +410,13 @@ def _limit_value(limit: Limit, scope: Scope) -> tuple[float | None, str, str]:
     return (None if value is None else float(value)), "", ""
 
 
+def _limit_by_subject(limit: Limit | None, scope: Scope) -> dict[str, float]:
+    """For a limit read from another result: its value for each subject."""
+    if limit is None or limit.kind != "result":
+        return {}
+    return {i.subject: float(i.value) for i in RESULTS[limit.ref][1](scope) if i.value is not None}
+
+
 def _holds(test: str, value: float, limit: float, inclusive_outside: bool | None) -> bool:
     if inclusive_outside is not None:  # window limits: the window says whether equality is outside
         if test in ("below", "at-or-below"):
@@ -279,19 +454,22 @@ def _run_check(check: Entry, scope: Scope) -> Iterator[Finding]:
             else:
                 inclusive_outside = test in ("at-or-above", "at-or-below")
     unit = UNITS[dimension]
+    per_subject = _limit_by_subject(limit, scope)
     for item in fn(scope):
         if item.value is None:
             continue
+        item_limit = per_subject.get(item.subject, limit_value)
         if test == "is-true":
             if not item.value:
                 continue
             measured, limit_amount, comparison = Amount(1.0, ""), Amount(None, ""), "present"
         else:
-            assert limit_value is not None
-            if not _holds(test, float(item.value), limit_value, inclusive_outside):
+            if item_limit is None:
+                continue
+            if not _holds(test, float(item.value), item_limit, inclusive_outside):
                 continue
             comparison = _COMPARISON_WORDS[test]
-            measured, limit_amount = Amount(float(item.value), unit), Amount(limit_value, unit)
+            measured, limit_amount = Amount(float(item.value), unit), Amount(item_limit, unit)
         context = _SafeContext(item.context)
         yield Finding(
             rule=check.id,
@@ -310,7 +488,7 @@ def _run_check(check: Entry, scope: Scope) -> Iterator[Finding]:
         )
 
 
-class _SafeContext(dict):  # type: ignore[type-arg]
+class _SafeContext(dict[str, Any]):
     """Missing placeholders print as an honest gap rather than raising."""
 
     def __missing__(self, key: str) -> str:

@@ -142,7 +142,16 @@ class CaseResult:
     draping_after_s: float | None = None
     first_activation_after_s: float | None = None
     stop_before_activation_s: float | None = None
-    oxygen_curve: tuple[tuple[float, float], ...] = ()  # (s, oxidant fraction)
+    delivery: str = ""  # oxygen delivery: none | nasal-cannula | face-mask | closed-airway
+    ceiling_stop_s: float | None = None  # oxygen stop that brings the site to the open-delivery ceiling
+    preparation: str = ""  # id of the prep used
+    prep_flammable: bool = False  # the prep has a flammable component
+    hair: bool = False
+    pooling: bool = False
+    flammable_left_at_draping_fraction: float | None = None
+    flammable_left_at_activation_fraction: float | None = None
+    pocket_at_activation_fraction_of_lfl: float | None = None
+    oxygen_curve: tuple[tuple[float, float], ...] = ()  # (s after oxygen stops, oxidant fraction)
     film_curve: tuple[tuple[float, float], ...] = ()  # (s, flammable liquid left, fraction)
     notes: tuple[str, ...] = ()
 
