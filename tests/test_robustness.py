@@ -1,0 +1,89 @@
+"""Any valid-looking variation of a room gives results or an input error, never a crash."""
+
+from __future__ import annotations
+
+import copy
+from typing import Any
+
+import yaml
+from click.testing import CliRunner
+from conftest import BASE_ROOM
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from ignite.cli import main
+
+CASE: dict[str, Any] = {
+    "id": 1,
+    "procedure": "excision of a lesion on the forearm",
+    "site": "limb",
+    "oxygen": {
+        "delivery": "face-mask",
+        "flow": "4 L/min",
+        "fraction": "100 %",
+        "nitrous_oxide_flow": "0 L/min",
+        "stop_before_activation": "60 s",
+    },
+    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
+    "prep": "none",
+    "air_speed": "0.2 m/s",
+    "draping_after": "3 min",
+    "first_activation_after": "6 min",
+    "materials": ["cotton"],
+    "ignition_sources": ["monopolar electrosurgery"],
+}
+
+PATHS = [
+    ("environment", "relative_humidity", "%"),
+    ("environment", "temperature", "degC"),
+    ("environment", "air_changes", "/h"),
+    ("floor", "test_voltage", "V"),
+    ("room", "mains", "voltage", "V"),
+]
+CASE_PATHS = [
+    ("oxygen", "flow", "L/min"),
+    ("oxygen", "fraction", "%"),
+    ("oxygen", "nitrous_oxide_flow", "L/min"),
+    ("oxygen", "stop_before_activation", "s"),
+    ("drape_pocket", "volume", "L"),
+    ("drape_pocket", "exchange", "L/min"),
+    ("draping_after", "s"),
+    ("first_activation_after", "s"),
+    ("air_speed", "m/s"),
+]
+
+numbers = st.one_of(
+    st.sampled_from([0, 1e-9, 0.5, 1, 20.9, 100, 150, 1e6, 1e12]),
+    st.floats(min_value=-10, max_value=1e4, allow_nan=False, allow_infinity=False),
+)
+
+
+def _set(data: dict[str, Any], path: tuple[str, ...], value: Any) -> None:
+    for key in path[:-1]:
+        data = data[key]
+    data[path[-1]] = value
+
+
+@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(
+    room_changes=st.lists(st.tuples(st.sampled_from(PATHS), numbers), max_size=3),
+    case_changes=st.lists(st.tuples(st.sampled_from(CASE_PATHS), numbers), max_size=4),
+    readings=st.lists(st.floats(min_value=1e-3, max_value=1e15), min_size=1, max_size=6),
+    footwear=st.sampled_from(["conductive", "esd", "antistatic", "insulating", "40 MΩ", "1 Ω", "0 Ω"]),
+)
+def test_variations_never_crash(tmp_path, room_changes, case_changes, readings, footwear):
+    data = copy.deepcopy(BASE_ROOM)
+    data["cases"] = [copy.deepcopy(CASE)]
+    for path, number in room_changes:
+        *keys, unit = path
+        _set(data, tuple(keys), f"{number} {unit}")
+    for path, number in case_changes:
+        *keys, unit = path
+        _set(data["cases"][0], tuple(keys), f"{number} {unit}")
+    data["floor"]["point_to_ground"] = [f"{r} Ω" for r in readings]
+    data["people"][0]["footwear"] = footwear
+    path = tmp_path / "room.yaml"
+    path.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
+    result = CliRunner().invoke(main, ["check", str(path), "--format", "json"])
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    assert result.exit_code in (0, 1, 3), result.output
