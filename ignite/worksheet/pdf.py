@@ -1,0 +1,950 @@
+"""Lay out a `WorksheetView` as a PDF. The only module in ignite that imports reportlab.
+
+Nothing here rounds or words a number: the view model did that. This module chooses
+fonts, sizes, page furniture and draws the charts with reportlab's own graphics.
+
+The DejaVu fonts shipped in `ignite/fonts/` are embedded (TrueType subsets), so Ω, µ,
+₂, ≤, ° and the severity marks print everywhere. Documents are built in reportlab's
+invariant mode with a fixed creation date (the assessment date), so the same view
+gives the same bytes. Every page's footer carries the room, page x of y, the input's
+SHA-256, the tool version and the rules digest.
+"""
+
+from __future__ import annotations
+
+import calendar
+import hashlib
+import io
+import itertools
+import math
+import time
+from collections.abc import Callable, Sequence
+from datetime import date
+from pathlib import Path
+from typing import Any
+from xml.sax.saxutils import escape
+
+from reportlab.graphics.shapes import Circle, Drawing, Line, Polygon, PolyLine, Rect, String
+from reportlab.lib import colors
+from reportlab.lib.pagesizes import A4, LETTER
+from reportlab.lib.styles import ParagraphStyle
+from reportlab.lib.units import mm
+from reportlab.pdfbase import pdfmetrics
+from reportlab.pdfbase.ttfonts import TTFont
+from reportlab.pdfgen.canvas import Canvas
+from reportlab.platypus import (
+    BaseDocTemplate,
+    CondPageBreak,
+    Flowable,
+    Frame,
+    KeepTogether,
+    LongTable,
+    PageBreak,
+    PageTemplate,
+    Paragraph,
+    Preformatted,
+    Spacer,
+    Table,
+    TableStyle,
+)
+
+from ignite.worksheet import model
+
+FONT = "IgniteSans"
+BOLD = "IgniteSans-Bold"
+MONO = "IgniteMono"
+FONT_DIR = Path(__file__).resolve().parent.parent / "fonts"
+
+PAPERS = {"a4": A4, "letter": LETTER}
+
+MARGIN_SIDE = 16 * mm
+MARGIN_TOP = 15 * mm
+MARGIN_BOTTOM = 21 * mm  # room for the three-line footer
+
+GRID = colors.Color(0.55, 0.55, 0.55)
+SHADE = colors.Color(0.9, 0.9, 0.9)  # header rows: light enough to print as grey on any printer
+FAINT = colors.Color(0.82, 0.82, 0.82)
+
+# Series styles: black lines told apart by dash pattern and marker shape.
+DASHES: tuple[tuple[float, ...] | None, ...] = (None, (4, 2), (1, 1.6), (6, 2, 1, 2), (2.5, 2.5))
+MARKERS = ("dot", "square", "triangle", "diamond", "cross")
+MARKER_SIZE = 2.2  # half-width of a marker [pt]
+
+
+# --------------------------------------------------------------------------- fonts, styles
+
+
+def _register_fonts() -> None:
+    if FONT in pdfmetrics.getRegisteredFontNames():
+        return
+    pdfmetrics.registerFont(TTFont(FONT, str(FONT_DIR / "DejaVuSans.ttf")))
+    pdfmetrics.registerFont(TTFont(BOLD, str(FONT_DIR / "DejaVuSans-Bold.ttf")))
+    mono = FONT_DIR / "DejaVuSansMono.ttf"
+    pdfmetrics.registerFont(
+        TTFont(MONO, str(mono if mono.exists() else FONT_DIR / "DejaVuSans.ttf"))
+    )
+    pdfmetrics.registerFontFamily(FONT, normal=FONT, bold=BOLD, italic=FONT, boldItalic=BOLD)
+
+
+def _styles() -> dict[str, ParagraphStyle]:
+    body = ParagraphStyle(
+        "body", fontName=FONT, fontSize=8.5, leading=11, spaceAfter=3, bulletFontName=FONT
+    )
+    return {
+        "body": body,
+        "small": ParagraphStyle("small", parent=body, fontSize=7.2, leading=9, spaceAfter=2),
+        "cell": ParagraphStyle("cell", parent=body, fontSize=7.5, leading=9.2, spaceAfter=0),
+        "cellbold": ParagraphStyle(
+            "cellbold", parent=body, fontName=BOLD, fontSize=7.5, leading=9.2, spaceAfter=0
+        ),
+        "tick": ParagraphStyle(
+            "tick",
+            parent=body,
+            fontSize=7.5,
+            leading=9.2,
+            spaceAfter=1,
+            leftIndent=11,
+            bulletIndent=0,
+            bulletFontName=FONT,
+            bulletFontSize=9,
+        ),
+        "bullet": ParagraphStyle(
+            "bullet", parent=body, leftIndent=10, bulletIndent=0, bulletFontName=FONT
+        ),
+        "title": ParagraphStyle(
+            "title", parent=body, fontName=BOLD, fontSize=15, leading=18, spaceAfter=2
+        ),
+        "subtitle": ParagraphStyle("subtitle", parent=body, fontSize=10, leading=13, spaceAfter=6),
+        "h2": ParagraphStyle(
+            "h2",
+            parent=body,
+            fontName=BOLD,
+            fontSize=11.5,
+            leading=14,
+            spaceBefore=10,
+            spaceAfter=5,
+        ),
+        "h3": ParagraphStyle(
+            "h3", parent=body, fontName=BOLD, fontSize=9.5, leading=12, spaceBefore=7, spaceAfter=3
+        ),
+        "verdict": ParagraphStyle(
+            "verdict", parent=body, fontName=BOLD, fontSize=10, leading=13, spaceAfter=0
+        ),
+        "mono": ParagraphStyle("mono", fontName=MONO, fontSize=6.6, leading=8.2),
+    }
+
+
+def _p(text: str, style: ParagraphStyle, **kwargs: Any) -> Paragraph:
+    """A paragraph of plain text: markup characters are escaped, newlines kept."""
+    return Paragraph(escape(text).replace("\n", "<br/>"), style, **kwargs)
+
+
+# --------------------------------------------------------------------------- page furniture
+
+
+def _timestamp(iso: str | None) -> Any:
+    """A reportlab TimeStamp at 00:00 UTC of the assessment date (or the invariant date)."""
+    from reportlab.lib.utils import TimeStamp
+
+    stamp = TimeStamp(invariant=1)
+    seconds = 946684800  # 2000-01-01, reportlab's own invariant date
+    if iso:
+        seconds = calendar.timegm(date.fromisoformat(iso).timetuple())
+    moment = time.gmtime(seconds)
+    stamp.t = seconds
+    stamp.lt = tuple(moment)
+    stamp.YMDhms = tuple(moment)[:6]
+    stamp.dhh = stamp.dmm = 0
+    stamp.tzname = "UTC"
+    return stamp
+
+
+def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
+    footer = view.footer
+
+    class WorksheetCanvas(Canvas):
+        """Holds every page back until the end, so each footer can say 'page x of y'."""
+
+        def __init__(self, *args: Any, **kwargs: Any) -> None:
+            kwargs["invariant"] = 1
+            # Start every page in the embedded font: the default (Helvetica) would be
+            # listed in the page's resources without being embedded.
+            kwargs["initialFontName"] = FONT
+            kwargs["initialFontSize"] = 8.5
+            kwargs["initialLeading"] = 11
+            super().__init__(*args, **kwargs)
+            # The document's dates come from the room file, never from the clock or the
+            # environment, so that the same input gives the same bytes.
+            stamp = _timestamp(view.creation_date)
+            self._doc._timeStamp = stamp
+            # The file identifier is a digest seeded with the time stamp (reportlab reads
+            # SOURCE_DATE_EPOCH for it): seed it again from the fixed stamp.
+            self._doc.signature = hashlib.md5(b"a reportlab document", usedforsecurity=False)
+            self._doc.signature.update(ascii(stamp.t).encode("ascii"))
+            self._held_pages: list[dict[str, Any]] = []
+
+        def showPage(self) -> None:
+            self._held_pages.append(dict(self.__dict__))
+            self._startPage()
+
+        def save(self) -> None:
+            total = len(self._held_pages)
+            for number, state in enumerate(self._held_pages, start=1):
+                self.__dict__.update(state)
+                self._furniture(number, total)
+                Canvas.showPage(self)
+            Canvas.save(self)
+
+        def _furniture(self, number: int, total: int) -> None:
+            width, height = self._pagesize
+            left, right = MARGIN_SIDE, width - MARGIN_SIDE
+            self.saveState()
+            self.setStrokeColor(colors.black)
+            self.setLineWidth(0.4)
+            if number > 1:
+                self.setFont(FONT, 7)
+                self.drawString(
+                    left, height - MARGIN_TOP + 5, f"{view.heading} — {view.subheading}"
+                )
+                self.line(left, height - MARGIN_TOP + 2, right, height - MARGIN_TOP + 2)
+            top = MARGIN_BOTTOM - 5
+            self.line(left, top, right, top)
+            self.setFont(BOLD, 7)
+            self.drawString(left, top - 9, f"Room {footer.room_id}")
+            self.drawRightString(right, top - 9, f"Page {number} of {total}")
+            self.setFont(FONT, 6.3)
+            self.drawCentredString((left + right) / 2, top - 9, f"ignite {footer.tool_version}")
+            self.drawString(left, top - 18, f"Input SHA-256  {footer.input_sha256}")
+            self.drawString(left, top - 26, f"Rules SHA-256  {footer.rules_digest}")
+            self.restoreState()
+
+    return WorksheetCanvas
+
+
+# --------------------------------------------------------------------------- tables
+
+
+def _table_style(header: bool = True) -> list[tuple[Any, ...]]:
+    style: list[tuple[Any, ...]] = [
+        ("FONTNAME", (0, 0), (-1, -1), FONT),
+        ("VALIGN", (0, 0), (-1, -1), "TOP"),
+        ("LEFTPADDING", (0, 0), (-1, -1), 3),
+        ("RIGHTPADDING", (0, 0), (-1, -1), 3),
+        ("TOPPADDING", (0, 0), (-1, -1), 1.5),
+        ("BOTTOMPADDING", (0, 0), (-1, -1), 2),
+        ("BOX", (0, 0), (-1, -1), 0.6, colors.black),
+        ("INNERGRID", (0, 0), (-1, -1), 0.25, GRID),
+    ]
+    if header:
+        style += [
+            ("BACKGROUND", (0, 0), (-1, 0), SHADE),
+            ("LINEBELOW", (0, 0), (-1, 0), 0.8, colors.black),
+        ]
+    return style
+
+
+def _widths(weights: Sequence[float], width: float) -> list[float]:
+    total = sum(weights)
+    return [width * w / total for w in weights]
+
+
+def _grid(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
+    """A table with a header row repeated on every page it runs over."""
+    if not table.rows:
+        return _p(table.empty_text, st["body"])
+    data = [[_p(h, st["cellbold"]) for h in table.headers]]
+    data += [[_p(cell, st["cell"]) for cell in row] for row in table.rows]
+    grid = LongTable(data, colWidths=_widths(table.widths, width), repeatRows=1, hAlign="LEFT")
+    grid.setStyle(TableStyle(_table_style()))
+    return grid
+
+
+def _pairs(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
+    """A two-column label/value table under a title row."""
+    data = [[_p(table.headers[0], st["cellbold"]), ""]]
+    data += [[_p(label, st["cell"]), _p(value, st["cell"])] for label, value in table.rows]
+    grid = Table(data, colWidths=_widths(table.widths, width), hAlign="LEFT")
+    grid.setStyle(TableStyle([*_table_style(), ("SPAN", (0, 0), (-1, 0))]))
+    return grid
+
+
+# --------------------------------------------------------------------------- sections
+
+
+def _header(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [_p(view.heading, st["title"]), _p(view.subheading, st["subtitle"])]
+    rows = [[_p(k, st["cellbold"]), _p(v, st["cell"])] for k, v in view.header]
+    block = Table(rows, colWidths=[28 * mm, width - 28 * mm], hAlign="LEFT")
+    block.setStyle(TableStyle(_table_style(header=False)))
+    story.append(block)
+    story.append(Spacer(1, 6))
+    mark = model.SEVERITY_MARKS.get(view.verdict_severity or "", "")
+    verdict_text = f"{mark}  {view.verdict}" if mark else view.verdict
+    verdict = Table(
+        [
+            [_p("Overall", st["cellbold"]), _p(verdict_text, st["verdict"])],
+            ["", _p(view.tally, st["cell"])],
+        ],
+        colWidths=[28 * mm, width - 28 * mm],
+        hAlign="LEFT",
+    )
+    verdict.setStyle(
+        TableStyle(
+            [
+                ("FONTNAME", (0, 0), (-1, -1), FONT),
+                (
+                    "BOX",
+                    (0, 0),
+                    (-1, -1),
+                    1.6 if view.verdict_severity == "high" else 0.9,
+                    colors.black,
+                ),
+                ("SPAN", (0, 0), (0, 1)),
+                ("VALIGN", (0, 0), (-1, -1), "MIDDLE"),
+                ("TOPPADDING", (0, 0), (-1, -1), 3),
+                ("BOTTOMPADDING", (0, 0), (-1, -1), 3),
+            ]
+        )
+    )
+    story.append(verdict)
+    if view.warnings:
+        story.append(Spacer(1, 4))
+        story.append(_p("The room file was accepted with these warnings:", st["body"]))
+        story += [_p(w, st["bullet"], bulletText="•") for w in view.warnings]
+    return story
+
+
+def _finding_card(
+    finding: model.FindingView, width: float, st: dict[str, ParagraphStyle]
+) -> Flowable:
+    label_width = 24 * mm
+    limit = finding.limit
+    if finding.comparison:
+        limit = f"{finding.limit} (measured is {finding.comparison} the limit)"
+    head = f"{finding.number}. {finding.severity_mark} {finding.severity_word} — {finding.title}"
+    rows: list[list[Any]] = [
+        [_p(head, st["cellbold"]), ""],
+        [_p("Rule", st["cellbold"]), _p(finding.rule, st["cell"])],
+        [_p("Subject", st["cellbold"]), _p(finding.subject, st["cell"])],
+        [_p("Measured", st["cellbold"]), _p(finding.measured, st["cell"])],
+    ]
+    if finding.limit:
+        rows.append([_p("Limit", st["cellbold"]), _p(limit, st["cell"])])
+    if finding.detail:
+        rows.append([_p("Why", st["cellbold"]), _p(finding.detail, st["cell"])])
+    rows.append(
+        [_p("Source", st["cellbold"]), _p(f"{finding.source} ({finding.flag})", st["cell"])]
+    )
+    for index, mitigation in enumerate(finding.mitigations):
+        rows.append(
+            [
+                _p("Mitigations" if index == 0 else "", st["cellbold"]),
+                _p(mitigation, st["tick"], bulletText=model.TICK_BOX),
+            ]
+        )
+    card = Table(rows, colWidths=[label_width, width - label_width], hAlign="LEFT")
+    weight = {"high": 1.8, "medium": 1.2}.get(finding.severity, 0.7)
+    card.setStyle(
+        TableStyle(
+            [
+                *_table_style(),
+                ("SPAN", (0, 0), (-1, 0)),
+                ("BOX", (0, 0), (-1, -1), weight, colors.black),
+            ]
+        )
+    )
+    return KeepTogether([card, Spacer(1, 5)])
+
+
+def _findings(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [_p("1  Findings, worst first", st["h2"])]
+    if not view.findings:
+        return [*story, _p(view.no_findings_text, st["body"])]
+    story.append(
+        _p(
+            "Severity is printed in words and as a mark (■■■ high, ■■□ medium, ■□□ low, □□□ note). "
+            "Tick each mitigation when it is in place.",
+            st["small"],
+        )
+    )
+    story += [_finding_card(f, width, st) for f in view.findings]
+    return story
+
+
+def _triad(case: model.CaseView, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
+    cells = []
+    for element in case.triad:
+        mark = "●" if element.present else "○"
+        cells.append(
+            [
+                _p(f"{mark} {element.name}: {element.state}", st["cellbold"]),
+                _p(element.why, st["cell"]),
+            ]
+        )
+    row = cells
+    triad = Table([row], colWidths=[width / 3] * 3, hAlign="LEFT")
+    style = _table_style(header=False)
+    triad.setStyle(TableStyle(style))
+    return triad
+
+
+def _charts_row(
+    charts: Sequence[model.Chart], width: float, st: dict[str, ParagraphStyle]
+) -> Flowable | None:
+    if not charts:
+        return None
+    if len(charts) == 1:
+        return _chart_block(charts[0], width, 165, st)
+    gap = 8
+    half = (width - gap) / 2
+    row = [_chart_parts(c, half, 165, st) for c in charts]
+    grid = Table([row], colWidths=[half + gap / 2, half + gap / 2], hAlign="LEFT")
+    grid.setStyle(
+        TableStyle(
+            [
+                ("FONTNAME", (0, 0), (-1, -1), FONT),
+                ("VALIGN", (0, 0), (-1, -1), "TOP"),
+                ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+                ("TOPPADDING", (0, 0), (-1, -1), 0),
+                ("BOTTOMPADDING", (0, 0), (-1, -1), 0),
+            ]
+        )
+    )
+    return grid
+
+
+def _cases(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [CondPageBreak(60 * mm), _p("2  Cases on the list", st["h2"])]
+    if not view.cases:
+        return [*story, _p(view.no_cases_text, st["body"])]
+    for index, case in enumerate(view.cases):
+        if index:
+            story.append(CondPageBreak(90 * mm))
+        story.append(
+            KeepTogether(
+                [
+                    _p(case.heading, st["h3"]),
+                    _triad(case, width, st),
+                    Spacer(1, 3),
+                    _p(case.triad_summary, st["cellbold"]),
+                    Spacer(1, 4),
+                ]
+            )
+        )
+        story.append(_pairs(model.Table(("On this case", ""), case.lists, (1.3, 3.0)), width, st))
+        story.append(Spacer(1, 4))
+        story.append(_grid(case.quantities, width, st))
+        story += [_p(note, st["small"], bulletText="–") for note in case.notes]
+        charts = [c for c in (case.oxygen_chart, case.film_chart) if c is not None]
+        block = _charts_row(charts, width, st)
+        if block is not None:
+            story += [Spacer(1, 5), block]
+        story.append(Spacer(1, 8))
+    return story
+
+
+def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]) -> list[Flowable]:
+    story: list[Flowable] = [CondPageBreak(70 * mm), _p("3  The room", st["h2"])]
+    gap = 8
+    half = (width - gap) / 2
+    pair = Table(
+        [[_pairs(view.floor_summary, half, st), _pairs(view.shock, half, st)]],
+        colWidths=[half + gap, half],
+        hAlign="LEFT",
+    )
+    pair.setStyle(
+        TableStyle(
+            [
+                ("FONTNAME", (0, 0), (-1, -1), FONT),
+                ("VALIGN", (0, 0), (-1, -1), "TOP"),
+                ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+                ("TOPPADDING", (0, 0), (-1, -1), 0),
+                ("BOTTOMPADDING", (0, 0), (-1, -1), 0),
+            ]
+        )
+    )
+    story += [_p("Floor and shock current", st["h3"]), pair]
+    if view.shock_note:
+        story.append(Spacer(1, 3))
+        story.append(_p(view.shock_note, st["small"]))
+    story.append(Spacer(1, 5))
+    readings = _grid(view.floor_readings, half, st)
+    # a short list of readings stays on one page; a long one runs on, header repeated
+    story.append(KeepTogether([readings]) if len(view.floor_readings.rows) <= 15 else readings)
+    if view.floor_chart is not None:
+        story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 170, st)]
+
+    story += [
+        CondPageBreak(50 * mm),
+        _p("People and trolleys", st["h3"]),
+        _grid(view.charges, width, st),
+    ]
+    if view.charges.rows:
+        story.append(Spacer(1, 2))
+        story.append(_p(view.charges_note, st["small"]))
+    if view.voltage_chart is not None:
+        story += [Spacer(1, 5), _chart_block(view.voltage_chart, width, 215, st)]
+
+    story += [
+        CondPageBreak(40 * mm),
+        _p("Preparations stocked", st["h3"]),
+        _grid(view.preparations, width, st),
+    ]
+    story += [_p(note, st["small"], bulletText="–") for note in view.preparation_notes]
+    story += [CondPageBreak(35 * mm), Spacer(1, 6), _pairs(view.environment, half, st)]
+    return story
+
+
+def _cautions_and_sign_off(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [CondPageBreak(60 * mm), _p("4  Cautions", st["h2"])]
+    story += [_p(c, st["bullet"], bulletText="•") for c in view.cautions]
+    decisions = [_p(d, st["tick"], bulletText=model.TICK_BOX) for d in view.sign_off_decisions]
+    rows: list[list[Any]] = [[_p(h, st["cellbold"]) for h in ("", "Name", "Signature", "Date")]]
+    rows += [[_p(role, st["cellbold"]), "", "", ""] for role in view.sign_off_roles]
+    signatures = Table(
+        rows,
+        colWidths=_widths((1.1, 2.0, 2.0, 1.0), width),
+        rowHeights=[None] + [30] * len(view.sign_off_roles),
+        hAlign="LEFT",
+    )
+    signatures.setStyle(TableStyle(_table_style()))
+    story.append(
+        KeepTogether(
+            [
+                _p("5  Sign-off", st["h2"]),
+                _p("Decision for the list (tick one):", st["body"]),
+                *decisions,
+                Spacer(1, 5),
+                signatures,
+            ]
+        )
+    )
+    return story
+
+
+def _input_listing(lines: Sequence[str], width: float, style: ParagraphStyle) -> list[Flowable]:
+    """The room file, numbered, wrapped at the frame width, split in page-sized pieces."""
+    digits = max(3, len(str(len(lines))))
+    char = pdfmetrics.stringWidth("0", style.fontName, style.fontSize)
+    per_line = max(20, int(width / char) - digits - 3)
+    out: list[str] = []
+    for number, line in enumerate(lines, start=1):
+        pieces = [line[i : i + per_line] for i in range(0, len(line), per_line)] or [""]
+        out.append(f"{number:>{digits}}  {pieces[0]}")
+        out += [f"{'':>{digits}} ↪{piece}" for piece in pieces[1:]]
+    chunk = 40
+    return [Preformatted("\n".join(out[i : i + chunk]), style) for i in range(0, len(out), chunk)]
+
+
+def _appendix(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [
+        PageBreak(),
+        _p("Appendix A  Rules evaluated", st["h2"]),
+        _p(
+            "Every rule in force for this run, with its threshold, source and provenance flag.",
+            st["small"],
+        ),
+        _grid(view.rules, width, st),
+        CondPageBreak(40 * mm),
+        _p("Appendix B  Methods", st["h2"]),
+        _grid(view.methods, width, st),
+        CondPageBreak(40 * mm),
+        _p("Appendix C  The room file as read", st["h2"]),
+        _p(f"{view.input_name} — SHA-256 {view.footer.input_sha256}", st["small"]),
+        Spacer(1, 3),
+    ]
+    if view.input_lines:
+        story += _input_listing(view.input_lines, width, st["mono"])
+    else:
+        story.append(_p("(empty)", st["body"]))
+    return story
+
+
+# --------------------------------------------------------------------------- charts
+
+
+class _Mapper:
+    def __init__(self, axis: model.Axis, start: float, length: float) -> None:
+        self.axis, self.start, self.length = axis, start, length
+        if axis.log:
+            self.low, self.high = math.log10(axis.low), math.log10(axis.high)
+        else:
+            self.low, self.high = axis.low, axis.high
+        if self.high <= self.low:
+            self.high = self.low + 1
+
+    def __call__(self, value: float) -> float:
+        v = math.log10(value) if self.axis.log else value
+        v = min(max(v, self.low), self.high)
+        return self.start + (v - self.low) / (self.high - self.low) * self.length
+
+
+def _marker(shape: str, x: float, y: float, size: float = MARKER_SIZE) -> Any:
+    black = colors.black
+    if shape == "dot":
+        return Circle(x, y, size, fillColor=black, strokeColor=black, strokeWidth=0.5)
+    if shape == "square":
+        return Rect(
+            x - size,
+            y - size,
+            2 * size,
+            2 * size,
+            fillColor=colors.white,
+            strokeColor=black,
+            strokeWidth=0.7,
+        )
+    if shape == "triangle":
+        return Polygon(
+            [x - size, y - size, x + size, y - size, x, y + size * 1.1],
+            fillColor=black,
+            strokeColor=black,
+            strokeWidth=0.5,
+        )
+    if shape == "diamond":
+        return Polygon(
+            [x, y - size * 1.2, x + size, y, x, y + size * 1.2, x - size, y],
+            fillColor=colors.white,
+            strokeColor=black,
+            strokeWidth=0.7,
+        )
+    group = []  # cross
+    for dx in (-1, 1):
+        group.append(
+            Line(
+                x - size, y - dx * size, x + size, y + dx * size, strokeColor=black, strokeWidth=0.9
+            )
+        )
+    return group
+
+
+def _add(drawing: Drawing, shape: Any) -> None:
+    if isinstance(shape, list):
+        for s in shape:
+            drawing.add(s)
+    else:
+        drawing.add(shape)
+
+
+def _series_look(series: model.Series) -> tuple[tuple[float, ...] | None, str]:
+    # Dash and marker advance together, then the markers shift by one for every round of
+    # dashes: the first 25 styles are all different pairs.
+    dash = DASHES[series.style % len(DASHES)]
+    marker = series.marker or MARKERS[(series.style + series.style // len(DASHES)) % len(MARKERS)]
+    return dash, marker
+
+
+def _legend_rows(chart: model.Chart, width: float) -> list[list[model.Series]]:
+    rows: list[list[model.Series]] = [[]]
+    used = 0.0
+    for series in chart.series:
+        need = 26 + pdfmetrics.stringWidth(series.label, FONT, 6.5) + 12
+        if rows[-1] and used + need > width:
+            rows.append([])
+            used = 0.0
+        rows[-1].append(series)
+        used += need
+    return [r for r in rows if r]
+
+
+def draw_chart(chart: model.Chart, width: float, height: float) -> Drawing:
+    """The chart as a reportlab Drawing: black on white, styles told apart by dash and marker."""
+    legend = _legend_rows(chart, width - 50)
+    legend_height = 10 * len(legend) if len(chart.series) > 1 or not chart.series[0].line else 0
+    left, right, top = 44.0, 8.0, 29.0
+    bottom = 26.0 + legend_height
+    drawing = Drawing(width, height)
+    drawing.initialFontName = FONT  # the renderer's starting font; the default is not embedded
+    plot_w, plot_h = width - left - right, height - top - bottom
+    # The axes run a few points inside the frame, so that markers at the ends stay whole.
+    inset = 4.0
+    fx = _Mapper(chart.x, left + inset, plot_w - 2 * inset)
+    fy = _Mapper(chart.y, bottom + inset, plot_h - 2 * inset)
+
+    drawing.add(String(0, height - 9, chart.title, fontName=BOLD, fontSize=7.8))
+    drawing.add(String(left - 40, height - 22, chart.y.label, fontName=FONT, fontSize=6.5))
+
+    for value, text in chart.y.ticks:
+        y = fy(value)
+        drawing.add(Line(left, y, left + plot_w, y, strokeColor=FAINT, strokeWidth=0.3))
+        drawing.add(Line(left - 2.5, y, left, y, strokeColor=colors.black, strokeWidth=0.5))
+        drawing.add(String(left - 4, y - 2.2, text, fontName=FONT, fontSize=6.3, textAnchor="end"))
+    for value, text in chart.x.ticks:
+        x = fx(value)
+        drawing.add(Line(x, bottom, x, bottom + plot_h, strokeColor=FAINT, strokeWidth=0.3))
+        drawing.add(Line(x, bottom - 2.5, x, bottom, strokeColor=colors.black, strokeWidth=0.5))
+        drawing.add(String(x, bottom - 10, text, fontName=FONT, fontSize=6.3, textAnchor="middle"))
+    drawing.add(
+        String(
+            left + plot_w / 2,
+            bottom - 20,
+            chart.x.label,
+            fontName=FONT,
+            fontSize=6.5,
+            textAnchor="middle",
+        )
+    )
+
+    for series in chart.series:
+        dash, marker = _series_look(series)
+        points = [(fx(x), fy(y)) for x, y in series.points]
+        if series.line and len(points) > 1:
+            drawing.add(
+                PolyLine(
+                    [c for p in points for c in p],
+                    strokeColor=colors.black,
+                    strokeWidth=1.0,
+                    strokeDashArray=list(dash) if dash else None,
+                )
+            )
+        if not series.line:
+            chosen = points
+        elif len(chart.series) > 1:
+            step = max(1, len(points) // 8)
+            chosen = points[(series.style * step // 3) % step :: step]
+        else:
+            chosen = []
+        for x, y in chosen:
+            _add(drawing, _marker(marker, x, y))
+
+    _reference_lines(drawing, chart, fx, fy, left, bottom, plot_w, plot_h)
+    drawing.add(
+        Rect(
+            left, bottom, plot_w, plot_h, fillColor=None, strokeColor=colors.black, strokeWidth=0.6
+        )
+    )
+
+    if legend_height:
+        y = 5.0 + 10 * (len(legend) - 1)
+        for row in legend:
+            x = left
+            for series in row:
+                dash, marker = _series_look(series)
+                if series.line:
+                    drawing.add(
+                        Line(
+                            x,
+                            y + 2,
+                            x + 18,
+                            y + 2,
+                            strokeColor=colors.black,
+                            strokeWidth=1.0,
+                            strokeDashArray=list(dash) if dash else None,
+                        )
+                    )
+                _add(drawing, _marker(marker, x + 9, y + 2))
+                drawing.add(String(x + 23, y, series.label, fontName=FONT, fontSize=6.5))
+                x += 26 + pdfmetrics.stringWidth(series.label, FONT, 6.5) + 12
+            y -= 10
+    return drawing
+
+
+class _Placer:
+    """Finds a spot for each label where it hides no curve, marker or other label."""
+
+    def __init__(
+        self, bounds: tuple[float, float, float, float], points: list[tuple[float, float, float]]
+    ) -> None:
+        self.bounds = bounds  # x0, y0, x1, y1 of the plot
+        self.points = points
+        self.boxes: list[tuple[float, float, float, float]] = []
+
+    def _cost(self, box: tuple[float, float, float, float]) -> float:
+        """0 for a free spot; otherwise how much it would hide (labels and edges worst)."""
+        x0, y0, x1, y1 = box
+        bx0, by0, bx1, by1 = self.bounds
+        cost = 0.0
+        if x0 < bx0 or x1 > bx1 or y0 < by0 or y1 > by1:
+            cost += 1000.0
+        cost += 100.0 * sum(
+            1 for a0, b0, a1, b1 in self.boxes if not (x1 <= a0 or x0 >= a1 or y1 <= b0 or y0 >= b1)
+        )
+        cost += sum(
+            1 for px, py, r in self.points if x0 - r <= px <= x1 + r and y0 - r <= py <= y1 + r
+        )
+        return cost
+
+    def place(
+        self, candidates: Sequence[tuple[float, float]], width: float, height: float
+    ) -> tuple[float, float]:
+        """The first free candidate, or else the one that hides least."""
+        best, best_cost = candidates[0], math.inf
+        for x, y in candidates:
+            cost = self._cost((x - 1, y - 1.6, x + width + 1, y + height))
+            if cost < best_cost:
+                best, best_cost = (x, y), cost
+            if cost == 0:
+                break
+        x, y = best
+        self.boxes.append((x - 1, y - 1.6, x + width + 1, y + height))
+        return x, y
+
+
+def _obstacles(
+    chart: model.Chart, fx: Callable[[float], float], fy: Callable[[float], float]
+) -> list[tuple[float, float, float]]:
+    """(x, y, reach) of every marker and of points every ~3 pt along every curve."""
+    points: list[tuple[float, float, float]] = []
+    for series in chart.series:
+        mapped = [(fx(x), fy(y)) for x, y in series.points]
+        points += [(x, y, MARKER_SIZE + 0.5) for x, y in mapped]
+        if not series.line:
+            continue
+        for (x0, y0), (x1, y1) in itertools.pairwise(mapped):
+            steps = max(1, int(math.hypot(x1 - x0, y1 - y0) / 3))
+            points += [
+                (x0 + (x1 - x0) * i / steps, y0 + (y1 - y0) * i / steps, 0.8)
+                for i in range(1, steps)
+            ]
+    return points
+
+
+def _reference_lines(
+    drawing: Drawing,
+    chart: model.Chart,
+    fx: Callable[[float], float],
+    fy: Callable[[float], float],
+    left: float,
+    bottom: float,
+    plot_w: float,
+    plot_h: float,
+) -> None:
+    size = 6.2
+    placer = _Placer(
+        (left + 1, bottom + 1, left + plot_w - 1, bottom + plot_h - 1), _obstacles(chart, fx, fy)
+    )
+    horizontal = [line for line in chart.lines if line.orientation == "h"]
+    vertical = [line for line in chart.lines if line.orientation == "v"]
+    for line in horizontal:
+        y = fy(line.at)
+        drawing.add(
+            Line(
+                left,
+                y,
+                left + plot_w,
+                y,
+                strokeColor=colors.black,
+                strokeWidth=0.8,
+                strokeDashArray=[3, 2],
+            )
+        )
+    for line in vertical:
+        x = fx(line.at)
+        drawing.add(
+            Line(
+                x,
+                bottom,
+                x,
+                bottom + plot_h,
+                strokeColor=colors.black,
+                strokeWidth=0.8,
+                strokeDashArray=[1, 1.5],
+            )
+        )
+    # Lines are drawn first, labels after, so that a label's white patch covers the lines
+    # it sits on but each label still sits beside its own line.
+    for line in sorted(horizontal, key=lambda item: -item.at):
+        if not line.label:
+            continue
+        y = fy(line.at)
+        text_w = pdfmetrics.stringWidth(line.label, FONT, size)
+        xs = [
+            left + plot_w - 3 - text_w,
+            left + 3,
+            left + (plot_w - text_w) / 2,
+            left + plot_w * 0.75 - text_w / 2,
+            left + plot_w * 0.25 - text_w / 2,
+        ]
+        candidates = [(x, y + 1.8) for x in xs] + [(x, y - size - 1.2) for x in xs]
+        _label(drawing, *placer.place(candidates, text_w, size), line.label, size)
+    for line in sorted(vertical, key=lambda item: item.at):
+        if not line.label:
+            continue
+        x = fx(line.at)
+        text_w = pdfmetrics.stringWidth(line.label, FONT, size)
+        rows = [bottom + plot_h - size - 2 - row * (size + 3) for row in range(6)]
+        candidates = [(x + 2.5, y) for y in rows] + [(x - 2.5 - text_w, y) for y in rows]
+        _label(drawing, *placer.place(candidates, text_w, size), line.label, size)
+
+
+def _label(drawing: Drawing, x: float, y: float, text: str, size: float) -> None:
+    """Text on a white patch, so that grid and curves never run through it."""
+    width = pdfmetrics.stringWidth(text, FONT, size)
+    drawing.add(
+        Rect(x - 1, y - 1.6, width + 2, size + 1.6, fillColor=colors.white, strokeColor=None)
+    )
+    drawing.add(String(x, y, text, fontName=FONT, fontSize=size))
+
+
+def _chart_parts(
+    chart: model.Chart, width: float, height: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    parts: list[Flowable] = [draw_chart(chart, width, height)]
+    if chart.caption:
+        parts.append(_p(chart.caption, st["small"]))
+    return parts
+
+
+def _chart_block(
+    chart: model.Chart, width: float, height: float, st: dict[str, ParagraphStyle]
+) -> Flowable:
+    return KeepTogether(_chart_parts(chart, width, height, st))
+
+
+# --------------------------------------------------------------------------- document
+
+
+def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
+    """The worksheet as PDF bytes; `paper` is "A4" (default) or "letter"."""
+    size = PAPERS.get(paper.lower())
+    if size is None:
+        raise ValueError(f"paper must be one of {', '.join(sorted(PAPERS))}, got {paper!r}")
+    _register_fonts()
+    st = _styles()
+    buffer = io.BytesIO()
+    doc = BaseDocTemplate(
+        buffer,
+        pagesize=size,
+        leftMargin=MARGIN_SIDE,
+        rightMargin=MARGIN_SIDE,
+        topMargin=MARGIN_TOP,
+        bottomMargin=MARGIN_BOTTOM,
+        title=view.title,
+        author=view.author,
+        subject=view.subject,
+        creator=f"ignite {view.footer.tool_version}",
+        invariant=1,
+    )
+    frame = Frame(
+        doc.leftMargin,
+        doc.bottomMargin,
+        doc.width,
+        doc.height,
+        id="body",
+        leftPadding=0,
+        rightPadding=0,
+        topPadding=0,
+        bottomPadding=0,
+    )
+    doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
+    width = doc.width
+    story: list[Flowable] = []
+    story += _header(view, width, st)
+    story += _findings(view, width, st)
+    story += _cases(view, width, st)
+    story += _room(view, width, st)
+    story += _cautions_and_sign_off(view, width, st)
+    story += _appendix(view, width, st)
+    doc.build(story, canvasmaker=_canvas_maker(view))
+    return buffer.getvalue()
