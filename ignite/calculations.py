@@ -8,6 +8,7 @@ from __future__ import annotations
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
+from pathlib import Path
 
 from ignite import __version__
 from ignite.model import Case, Person, Preparation, Room, Trolley
@@ -27,24 +28,44 @@ from ignite.results import (
 from ignite.rulebook import Entry, Rulebook
 
 METHODS: tuple[MethodRef, ...] = (
-    MethodRef("Floor window check (highest reading for static, lowest for shock)",
-              "IEC 60364-7-710 / NEK 400:710; NFPA 99 (editions up to 2005); IEC 61340-5-1"),
-    MethodRef("Shock current by Ohm's law, I = U / (R_floor,min + R_body)", "IEC 60479-1 (body impedance, Table 1)"),
-    MethodRef("Leaky-capacitor charging, V = I_g·R·(1 − e^(−t/τ)), capped by the humidity saturation voltage",
-              "electrostatics texts; ESD industry table of typical voltages"),
-    MethodRef("Spark energy E = ½·C·V², charge Q = C·V; no spark below the Paschen minimum", "IEC 61000-4-2 body model"),
-    MethodRef("MIE against oxidant, MIE(x) = MIE_air·(x/0.209)^(−n), bounded by MIE in O₂",
-              "power law fitted to air/O₂ pairs (Lewis & von Elbe; Blanc et al. 1949)"),
-    MethodRef("Activity coefficients by UNIFAC", "Fredenslund, Jones & Prausnitz (1975), via thermo"),
+    MethodRef(
+        "Floor window check (highest reading for static, lowest for shock)",
+        "IEC 60364-7-710 / NEK 400:710; NFPA 99 (editions up to 2005); IEC 61340-5-1",
+    ),
+    MethodRef(
+        "Shock current by Ohm's law, I = U / (R_floor,min + R_body)",
+        "IEC 60479-1 (body impedance, Table 1)",
+    ),
+    MethodRef(
+        "Leaky-capacitor charging, V = I_g·R·(1 − e^(−t/τ)), capped by the humidity saturation voltage",
+        "electrostatics texts; ESD industry table of typical voltages",
+    ),
+    MethodRef(
+        "Spark energy E = ½·C·V², charge Q = C·V; no spark below the Paschen minimum",
+        "IEC 61000-4-2 body model",
+    ),
+    MethodRef(
+        "MIE against oxidant, MIE(x) = MIE_air·(x/0.209)^(−n), bounded by MIE in O₂",
+        "power law fitted to air/O₂ pairs (Lewis & von Elbe; Blanc et al. 1949)",
+    ),
+    MethodRef(
+        "Activity coefficients by UNIFAC", "Fredenslund, Jones & Prausnitz (1975), via thermo"
+    ),
     MethodRef("Mixture flash point", "Liaw et al. (2002)"),
     MethodRef("Mixture lower flammable limit", "Le Chatelier's rule"),
-    MethodRef("Pure-component data (vapour pressure, LFL, flash point, autoignition)",
-              "IEC 60079-20-1:2010 and NFPA 497:2008 via the chemicals package"),
-    MethodRef("Film evaporation, Sh = 0.664·Re^½·Sc^⅓ with a natural-convection floor",
-              "laminar flat plate (Welty–Wicks–Wilson); diffusivities Fuller–Schettler–Giddings (Poling et al.)"),
+    MethodRef(
+        "Pure-component data (vapour pressure, LFL, flash point, autoignition)",
+        "IEC 60079-20-1:2010 and NFPA 497:2008 via the chemicals package",
+    ),
+    MethodRef(
+        "Film evaporation, Sh = 0.664·Re^½·Sc^⅓ with a natural-convection floor",
+        "laminar flat plate (Welty–Wicks–Wilson); diffusivities Fuller–Schettler–Giddings (Poling et al.)",
+    ),
     MethodRef("Drape pocket, well mixed: V·dc/dt = source − Q·c", "continuous stirred volume"),
     MethodRef("Oxygen under drapes, C(t) = 0.209 + (C0 − 0.209)·e^(−Q·t/V)", "well-mixed washout"),
-    MethodRef("Materials that sustain burning: LOI less 2 points", "ISO 4589-2 / ASTM D2863; NFPA 53"),
+    MethodRef(
+        "Materials that sustain burning: LOI less 2 points", "ISO 4589-2 / ASTM D2863; NFPA 53"
+    ),
 )
 
 RH_CHART = tuple(r / 100 for r in range(5, 81, 5))
@@ -78,7 +99,9 @@ def compute(room: Room, book: Rulebook) -> Results:
     charges = people + trolleys
     largest_spark = max((c.spark_energy_J for c in charges), default=None)
     warnings = list(room.warnings)
-    _, clamped = electrostatics.saturation_voltage(env.relative_humidity, model.saturation_curve.get("points"))
+    _, clamped = electrostatics.saturation_voltage(
+        env.relative_humidity, model.saturation_curve.get("points")
+    )
     if clamped and charges:
         warnings.append(
             f"RH {env.relative_humidity:.0%} lies outside the humidity table "
@@ -86,9 +109,7 @@ def compute(room: Room, book: Rulebook) -> Results:
         )
 
     preparations, analyses = _preparations(room, book, warnings)
-    cases = tuple(
-        _case(case, room, book, analyses, largest_spark) for case in room.cases
-    )
+    cases = tuple(_case(case, room, book, analyses, largest_spark) for case in room.cases)
     lowest, lowest_fuel = lowest_mie(room_fuels(room, book, analyses), env_fraction(book), book)
     if lowest_fuel:
         lowest_fuel += " in room air"
@@ -100,8 +121,12 @@ def compute(room: Room, book: Rulebook) -> Results:
     rise = max(
         (
             oxygen.room_oxidant_rise(
-                planned.oxygen.flow, planned.oxygen.fraction, planned.oxygen.nitrous_oxide_flow,
-                env.volume, env.air_changes, book.value("oxygen.ambient"),
+                planned.oxygen.flow,
+                planned.oxygen.fraction,
+                planned.oxygen.nitrous_oxide_flow,
+                env.volume,
+                env.air_changes,
+                book.value("oxygen.ambient"),
             )
             for planned in room.cases
             if planned.oxygen.delivery in OPEN_DELIVERY
@@ -116,9 +141,15 @@ def compute(room: Room, book: Rulebook) -> Results:
     return Results(
         tool_version=__version__,
         input_sha256=room.sha256,
-        input_name=room.path,
+        input_name=Path(room.path).name,
         rules_digest=book.digest,
-        room=RoomInfo(room.room.id, room.room.name, room.room.purpose, room.room.assessed_on, room.room.assessor),
+        room=RoomInfo(
+            room.room.id,
+            room.room.name,
+            room.room.purpose,
+            room.room.assessed_on,
+            room.room.assessor,
+        ),
         environment=EnvironmentResult(
             temperature_K=env.temperature,
             relative_humidity_fraction=env.relative_humidity,
@@ -139,6 +170,7 @@ def compute(room: Room, book: Rulebook) -> Results:
         lowest_site_mie_fuel=lowest_fuel,
         largest_spark_J=largest_spark,
         no_spark_voltage_V=model.no_spark_voltage,
+        oxygen_enriched_limit_fraction=book.value("oxygen.enriched_limit"),
         voltage_vs_rh=tuple((c.label, _voltage_curve(c, model)) for c in charges),
     )
 
@@ -161,13 +193,19 @@ def compute_floor(room: Room, book: Rulebook) -> FloorResult:
     mains = room.room.mains
     low, high = window_limits(window, mains.voltage)
     outside = floor.readings_outside_window(
-        readings, low, high,
+        readings,
+        low,
+        high,
         low_inclusive=bool(window.get("low_inclusive", False)),
         high_inclusive=bool(window.get("high_inclusive", True)),
     )
     passed = not outside
     mean_low = window.get("mean_low")
-    if mean_low is not None and stats.count >= window.get("mean_min_readings", 1) and stats.mean <= mean_low:
+    if (
+        mean_low is not None
+        and stats.count >= window.get("mean_min_readings", 1)
+        and stats.mean <= mean_low
+    ):
         passed = False
     body, extrapolated = shock.body_impedance(mains.voltage, book.points("body.impedance"))
     current = shock.shock_current(mains.voltage, stats.min, body)
@@ -224,8 +262,14 @@ def footwear_resistance(person: Person, book: Rulebook) -> tuple[float, str]:
 
 
 def charge_state(
-    kind: str, label: str, count: int, footwear: str, leak: float, capacitance: float,
-    rh: float, model: ChargeModel,
+    kind: str,
+    label: str,
+    count: int,
+    footwear: str,
+    leak: float,
+    capacitance: float,
+    rh: float,
+    model: ChargeModel,
 ) -> ChargeResult:
     v_sat, _ = electrostatics.saturation_voltage(rh, model.saturation_curve.get("points"))
     voltage = electrostatics.body_voltage(model.generation_current, leak, capacitance, v_sat)
@@ -247,24 +291,51 @@ def charge_state(
     )
 
 
-def _person(person: Person, model: ChargeModel, rh: float, default_c: float, book: Rulebook) -> ChargeResult:
+def _person(
+    person: Person, model: ChargeModel, rh: float, default_c: float, book: Rulebook
+) -> ChargeResult:
     footwear_r, footwear = footwear_resistance(person, book)
     capacitance = person.capacitance if person.capacitance is not None else default_c
-    return charge_state("person", person.role, person.count, footwear, footwear_r + model.floor_max,
-                        capacitance, rh, model)
+    return charge_state(
+        "person",
+        person.role,
+        person.count,
+        footwear,
+        footwear_r + model.floor_max,
+        capacitance,
+        rh,
+        model,
+    )
 
 
 def _trolley(trolley: Trolley, model: ChargeModel, rh: float) -> ChargeResult:
-    return charge_state("trolley", trolley.name, 1, "", trolley.path_to_floor + model.floor_max,
-                        trolley.capacitance, rh, model)
+    return charge_state(
+        "trolley",
+        trolley.name,
+        1,
+        "",
+        trolley.path_to_floor + model.floor_max,
+        trolley.capacitance,
+        rh,
+        model,
+    )
 
 
 def _voltage_curve(charge: ChargeResult, model: ChargeModel) -> tuple[tuple[float, float], ...]:
     points = []
     for rh in RH_CHART:
         v_sat, _ = electrostatics.saturation_voltage(rh, model.saturation_curve.get("points"))
-        points.append((rh, electrostatics.body_voltage(
-            model.generation_current, charge.leak_resistance_ohm, charge.capacitance_F, v_sat)))
+        points.append(
+            (
+                rh,
+                electrostatics.body_voltage(
+                    model.generation_current,
+                    charge.leak_resistance_ohm,
+                    charge.capacitance_F,
+                    v_sat,
+                ),
+            )
+        )
     return tuple(points)
 
 
@@ -312,7 +383,10 @@ def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[
     best: tuple[float | None, str] = (None, "")
     for fuel in fuels:
         mie = ignition.mie_at_oxidant(
-            fuel.get("mie_air"), oxidant, fuel.get("exponent"), fuel.get("mie_oxygen"),
+            fuel.get("mie_air"),
+            oxidant,
+            fuel.get("exponent"),
+            fuel.get("mie_oxygen"),
             air_fraction=env_fraction(book),
         )
         if best[0] is None or mie < best[0]:
@@ -324,8 +398,11 @@ def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[
 
 
 def prep_assumptions(book: Rulebook) -> dict[str, float]:
-    return {e.id.removeprefix("prep."): float(e.get("value"))
-            for e in book.of_kind("parameters") if e.id.startswith("prep.")}
+    return {
+        e.id.removeprefix("prep."): float(e.get("value"))
+        for e in book.of_kind("parameters")
+        if e.id.startswith("prep.")
+    }
 
 
 def _preparations(
@@ -344,13 +421,19 @@ def _preparations(
         components = tuple(
             ComponentResult(n, c, x, g, f)
             for n, c, x, g, f in zip(
-                analysis.names, analysis.cas, analysis.mole_fractions,
-                analysis.activity_coefficients, analysis.flammable, strict=True,
+                analysis.names,
+                analysis.cas,
+                analysis.mole_fractions,
+                analysis.activity_coefficients,
+                analysis.flammable,
+                strict=True,
             )
         )
         notes = list(analysis.notes)
         if not _prep_fuels(prep, book, analysis) and any(analysis.flammable):
-            notes.append("no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed")
+            notes.append(
+                "no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed"
+            )
         results.append(
             PreparationResult(
                 id=prep.id,
@@ -381,7 +464,9 @@ def _case(
     pocket = case.drape_pocket
     notes: list[str] = []
     if ox.delivery in OPEN_DELIVERY:
-        c_ss = oxygen.pocket_steady_state(ox.flow, ox.fraction, ox.nitrous_oxide_flow, pocket.exchange, ambient)
+        c_ss = oxygen.pocket_steady_state(
+            ox.flow, ox.fraction, ox.nitrous_oxide_flow, pocket.exchange, ambient
+        )
         total = ox.flow + ox.nitrous_oxide_flow + pocket.exchange
         buildup = oxygen.buildup_time(enriched, ambient, c_ss, pocket.volume, total)
     else:
@@ -392,20 +477,31 @@ def _case(
     ceiling_stop = oxygen.washout_time(
         c_ss, book.value("oxygen.open_delivery_ceiling"), pocket.volume, pocket.exchange, ambient
     )
-    at_activation = oxygen.fraction_after_stop(c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient)
-    curve = _oxygen_curve(c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout)
+    at_activation = oxygen.fraction_after_stop(
+        c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient
+    )
+    curve = _oxygen_curve(
+        c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
+    )
 
     fuels = room_fuels(room, book, analyses)
     mie, mie_fuel = lowest_mie(fuels, at_activation, book)
 
     materials = book.names_of("materials")
-    loi = [(name, materials[name.lower()].get("loi")) for name in case.materials if name.lower() in materials]
+    loi = [
+        (name, materials[name.lower()].get("loi"))
+        for name in case.materials
+        if name.lower() in materials
+    ]
     allowance = book.value("materials.loi_allowance")
     sustaining = ignition.materials_sustaining(c_ss, loi, allowance)
     holding = tuple(
-        name for name in case.materials
+        name
+        for name in case.materials
         if name.lower() in materials
-        and ignition.holds_charge(room.environment.relative_humidity, materials[name.lower()].get("holds_charge_below_rh"))
+        and ignition.holds_charge(
+            room.environment.relative_humidity, materials[name.lower()].get("holds_charge_below_rh")
+        )
     )
 
     drying = peak = safe = left_draping = left_activation = pocket_activation = None
@@ -439,7 +535,11 @@ def _case(
             pocket_exchange_m3_s=pocket.exchange,
             assumptions=assumptions,
         )
-        drying, peak, safe = outcome.drying_time_s, outcome.pocket_peak_fraction_of_lfl, outcome.safe_draping_after_s
+        drying, peak, safe = (
+            outcome.drying_time_s,
+            outcome.pocket_peak_fraction_of_lfl,
+            outcome.safe_draping_after_s,
+        )
         left_draping = outcome.flammable_left_at_draping_fraction
         left_activation = outcome.flammable_left_at_activation_fraction
         pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
@@ -456,9 +556,8 @@ def _case(
     triad = Triad(
         oxidant=at_activation > enriched or head_neck_open,
         fuel=fuel_at_activation or bool(sustaining),
-        ignition=bool(case.ignition_sources) or (
-            largest_spark is not None and mie is not None and largest_spark >= mie
-        ),
+        ignition=bool(case.ignition_sources)
+        or (largest_spark is not None and mie is not None and largest_spark >= mie),
     )
     return CaseResult(
         id=case.id,

@@ -75,7 +75,9 @@ def main() -> None:
 
 @main.command(help="Compute and print the results and findings of one or more rooms.")
 @click.argument("rooms", nargs=-1, required=True, type=click.Path(path_type=Path))
-@click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True)
+@click.option(
+    "--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True
+)
 @fail_on_option
 @rules_option
 def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | None) -> None:
@@ -104,7 +106,9 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
         else:
             click.echo(render_text(results))
     if fmt == "json" and records:
-        click.echo(json.dumps(records[0] if len(rooms) == 1 else records, indent=2, ensure_ascii=False))
+        click.echo(
+            json.dumps(records[0] if len(rooms) == 1 else records, indent=2, ensure_ascii=False)
+        )
     _exit(EXIT_INVALID if invalid else EXIT_FINDINGS if reached else EXIT_CLEAN)
 
 
@@ -118,11 +122,21 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
     help="PDF file (one room) or folder. Default: output/<room id>-<date>.pdf",
 )
 @click.option("--force", is_flag=True, help="Replace an existing worksheet.")
-@click.option("--paper", type=click.Choice(["a4", "letter"], case_sensitive=False), default="a4", show_default=True)
+@click.option(
+    "--paper",
+    type=click.Choice(["a4", "letter"], case_sensitive=False),
+    default="a4",
+    show_default=True,
+)
 @fail_on_option
 @rules_option
 def assess(
-    rooms: tuple[Path, ...], output: Path | None, force: bool, paper: str, fail_on: str, rules_dir: Path | None
+    rooms: tuple[Path, ...],
+    output: Path | None,
+    force: bool,
+    paper: str,
+    fail_on: str,
+    rules_dir: Path | None,
 ) -> None:
     from ignite.errors import InputError, OutputExistsError
     from ignite.pipeline import write_room_worksheet
@@ -149,10 +163,20 @@ def assess(
         worst = results.worst_severity() or "none"
         click.echo(f"{written}  ({len(results.findings)} findings, worst: {worst})")
     _say(CAUTION)
-    _exit(EXIT_INVALID if invalid else EXIT_USAGE if exists else EXIT_FINDINGS if reached else EXIT_CLEAN)
+    _exit(
+        EXIT_INVALID
+        if invalid
+        else EXIT_USAGE
+        if exists
+        else EXIT_FINDINGS
+        if reached
+        else EXIT_CLEAN
+    )
 
 
-@main.command("rules", help="List every rule and value in force with its threshold, source and flag.")
+@main.command(
+    "rules", help="List every rule and value in force with its threshold, source and flag."
+)
 @click.argument("rule_id", required=False)
 @rules_option
 def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
@@ -163,7 +187,9 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
     if rule_id is not None:
         entries = [e for e in entries if e.id == rule_id or e.id.startswith(rule_id + ".")]
         if not entries:
-            raise click.UsageError(f"no rule or value with id {rule_id!r}; `ignite rules` lists them all")
+            raise click.UsageError(
+                f"no rule or value with id {rule_id!r}; `ignite rules` lists them all"
+            )
     click.echo(f"Rules in force: {book.directory}  (sha256 {book.digest[:16]}…)")
     kind = None
     for entry in entries:
@@ -173,7 +199,10 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
         click.echo(f"{entry.id}: {entry.title}")
         threshold = describe(entry)
         if entry.kind == "checks":
-            threshold = f"{entry.get('severity')} when {entry.get('reads')} {entry.get('test')} " + threshold
+            threshold = (
+                f"{entry.get('severity')} when {entry.get('reads')} {entry.get('test')} "
+                + threshold
+            )
         if threshold:
             click.echo(f"    {threshold}")
         click.echo(f"    source: {entry.source} [{entry.flag}]")

@@ -70,8 +70,10 @@ def known_results() -> dict[str, str]:
 
 def _floor_context(scope: Scope) -> dict[str, Any]:
     fl = scope.results.floor
-    low, high = fl.window_low_ohm, fl.window_high_ohm
-    outside_low = sum(1 for i in fl.readings_outside if low is not None and fl.readings_ohm[i] <= low)
+    low = fl.window_low_ohm
+    outside_low = sum(
+        1 for i in fl.readings_outside if low is not None and fl.readings_ohm[i] <= low
+    )
     let_go = scope.book.value("shock.let_go")
     floor_for_let_go = max(fl.touch_voltage_V / let_go - fl.body_impedance_ohm, 0.0)
     return {
@@ -105,7 +107,11 @@ def _floor_mean(scope: Scope) -> Iterator[Item]:
 
 @result("floor.shock_current", "current")
 def _shock_current(scope: Scope) -> Iterator[Item]:
-    yield Item("floor (person touching a live enclosure)", scope.results.floor.shock_current_A, _floor_context(scope))
+    yield Item(
+        "floor (person touching a live enclosure)",
+        scope.results.floor.shock_current_A,
+        _floor_context(scope),
+    )
 
 
 def _charges(scope: Scope) -> Iterator[ChargeResult]:
@@ -143,8 +149,14 @@ def _case_subject(case: CaseResult) -> str:
 def _case_context(scope: Scope, case: CaseResult) -> dict[str, Any]:
     book = scope.book
     res = scope.results
-    label_minimum = book.value("prep.label_minimum_hairless") if "prep.label_minimum_hairless" in book.entries else None
-    label_hair = book.value("prep.label_maximum_hair") if "prep.label_maximum_hair" in book.entries else None
+    label_minimum = (
+        book.value("prep.label_minimum_hairless")
+        if "prep.label_minimum_hairless" in book.entries
+        else None
+    )
+    label_hair = (
+        book.value("prep.label_maximum_hair") if "prep.label_maximum_hair" in book.entries else None
+    )
     allowance = book.value("materials.loi_allowance")
     sustain = ", ".join(case.materials_sustain_burning) or "none"
     if case.materials_sustain_burning:
@@ -203,8 +215,13 @@ def _case_context(scope: Scope, case: CaseResult) -> dict[str, Any]:
         "sources": ", ".join(case.ignition_sources) or "none planned",
         "rh": format_si(res.environment.relative_humidity_fraction, "fraction"),
         "triad_sides": ", ".join(
-            name for name, on in (("oxidant", case.triad.oxidant), ("fuel", case.triad.fuel),
-                                  ("ignition", case.triad.ignition)) if on
+            name
+            for name, on in (
+                ("oxidant", case.triad.oxidant),
+                ("fuel", case.triad.fuel),
+                ("ignition", case.triad.ignition),
+            )
+            if on
         ),
     }
     return context
@@ -315,7 +332,9 @@ def _min_rh_text(scope: Scope, voltage: float) -> str:
         )
     if rh <= curve[0][0]:
         return "Humidity is not the limiting factor here (any RH in the table keeps the voltage low enough)."
-    return f"Keep RH at or above {rh:.0%} (humidity table), where the ventilation plant can hold it."
+    return (
+        f"Keep RH at or above {rh:.0%} (humidity table), where the ventilation plant can hold it."
+    )
 
 
 def _saturation_points(scope: Scope) -> list[tuple[float, float]]:
@@ -337,16 +356,22 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
         if charge.kind == "person":
             r = electrostatics.max_footwear_resistance(v_limit, gen, floor_max)
             if r is None:
-                return (f"The floor alone ({format_si(floor_max, 'Ω')} at its highest) is too resistive to keep "
-                        f"{charge.label} below {what}: restore the floor.")
-            return (f"Footwear of at most {format_si(r, 'Ω')} through the soles (with the floor's highest reading) "
-                    f"keeps {charge.label} below {what}.")
+                return (
+                    f"The floor alone ({format_si(floor_max, 'Ω')} at its highest) is too resistive to keep "
+                    f"{charge.label} below {what}: restore the floor."
+                )
+            return (
+                f"Footwear of at most {format_si(r, 'Ω')} through the soles (with the floor's highest reading) "
+                f"keeps {charge.label} below {what}."
+            )
         r_total = electrostatics.max_leak_resistance(v_limit, gen)
         path = r_total - floor_max
         if path <= 0:
             return f"The floor alone is too resistive to keep the {charge.label} below {what}: restore the floor."
-        return (f"A castor or drag-chain path of at most {format_si(path, 'Ω')} to the floor keeps the "
-                f"{charge.label} below {what}.")
+        return (
+            f"A castor or drag-chain path of at most {format_si(path, 'Ω')} to the floor keeps the "
+            f"{charge.label} below {what}."
+        )
 
     context: dict[str, Any] = {
         "body_voltage": format_si(charge.body_voltage_V, "V"),
@@ -356,7 +381,9 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
         "lowest_mie": format_si(mie, "J"),
         "mie_fuel": mie_fuel or "no fuel in the rules' table",
         "rh_advice_no_spark": _min_rh_text(scope, no_spark),
-        "leak_mitigation_no_spark": leak_text(no_spark, f"the no-spark voltage ({format_si(no_spark, 'V')})"),
+        "leak_mitigation_no_spark": leak_text(
+            no_spark, f"the no-spark voltage ({format_si(no_spark, 'V')})"
+        ),
     }
     if v_mie is not None:
         limit = min(v_mie, charge.saturation_voltage_V)
@@ -366,7 +393,9 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
             f"a spark of {format_si(mie, 'J')}" if v_mie > no_spark else "the no-spark voltage",
         )
     if scope.window is not None and scope.window.has("walking_voltage_high"):
-        context["leak_mitigation_esd"] = leak_text(scope.window.get("walking_voltage_high"), "the ESD walking-voltage limit")
+        context["leak_mitigation_esd"] = leak_text(
+            scope.window.get("walking_voltage_high"), "the ESD walking-voltage limit"
+        )
     return context
 
 
@@ -430,7 +459,12 @@ def _holds(test: str, value: float, limit: float, inclusive_outside: bool | None
     }[test]
 
 
-_COMPARISON_WORDS = {"above": "above", "at-or-above": "at or above", "below": "below", "at-or-below": "at or below"}
+_COMPARISON_WORDS = {
+    "above": "above",
+    "at-or-above": "at or above",
+    "below": "below",
+    "at-or-below": "at or below",
+}
 
 
 def _run_check(check: Entry, scope: Scope) -> Iterator[Finding]:
@@ -482,7 +516,9 @@ def _run_check(check: Entry, scope: Scope) -> Iterator[Finding]:
             source=source,
             flag=flag,
             mitigations=tuple(
-                text for text in (m.format_map(context).strip() for m in check.get("mitigations", ())) if text
+                text
+                for text in (m.format_map(context).strip() for m in check.get("mitigations", ()))
+                if text
             ),
             detail=check.get("detail", "").format_map(context).strip(),
         )
@@ -516,6 +552,9 @@ def check_dimensions(book: Rulebook) -> list[str]:
     bad = []
     for check in book.of_kind("checks"):
         limit = check.get("limit")
-        if limit is not None and limit_dimension(limit, book.entries, known) not in (None, known[check.get("reads")]):
+        if limit is not None and limit_dimension(limit, book.entries, known) not in (
+            None,
+            known[check.get("reads")],
+        ):
             bad.append(check.id)
     return bad

@@ -72,7 +72,13 @@ def write_room_worksheet(
     if target.exists() and not force:
         raise OutputExistsError(target)
     text = Path(path).read_bytes().decode("utf-8")
-    data = render_worksheet(results, rule_rows(book), METHODS, text, paper="letter" if paper.lower() == "letter" else "A4")
+    data = render_worksheet(
+        results,
+        rule_rows(book),
+        METHODS,
+        text,
+        paper="letter" if paper.lower() == "letter" else "A4",
+    )
     target.parent.mkdir(parents=True, exist_ok=True)
     write_worksheet(target, data, force=force)
     return results, target

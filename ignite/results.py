@@ -143,7 +143,9 @@ class CaseResult:
     first_activation_after_s: float | None = None
     stop_before_activation_s: float | None = None
     delivery: str = ""  # oxygen delivery: none | nasal-cannula | face-mask | closed-airway
-    ceiling_stop_s: float | None = None  # oxygen stop that brings the site to the open-delivery ceiling
+    ceiling_stop_s: float | None = (
+        None  # oxygen stop that brings the site to the open-delivery ceiling
+    )
     preparation: str = ""  # id of the prep used
     prep_flammable: bool = False  # the prep has a flammable component
     hair: bool = False
@@ -196,6 +198,7 @@ class Results:
     lowest_site_mie_fuel: str = ""  # the fuel (and where) that sets lowest_site_mie_J
     largest_spark_J: float | None = None
     no_spark_voltage_V: float = 330.0
+    oxygen_enriched_limit_fraction: float = 0.235
     # chart data: per person/trolley label, (RH fraction, body voltage V) at the room's leak path
     voltage_vs_rh: tuple[tuple[str, tuple[tuple[float, float], ...]], ...] = ()
 

@@ -248,18 +248,29 @@ def _load_file(path: Path, raw: bytes, problems: list[Problem]) -> Iterable[Entr
         return []
     unknown = set(data) - {"format", "kind", "entries"}
     for key in sorted(unknown):
-        problems.append(Problem(name, lines.get(key), key, "unknown key; allowed: format, kind, entries"))
+        problems.append(
+            Problem(name, lines.get(key), key, "unknown key; allowed: format, kind, entries")
+        )
     if data.get("format") != 1:
-        problems.append(Problem(name, lines.get("format"), "format", f"expected 1, got {data.get('format')!r}"))
+        problems.append(
+            Problem(name, lines.get("format"), "format", f"expected 1, got {data.get('format')!r}")
+        )
     kind = data.get("kind")
     if kind not in SCHEMAS:
         problems.append(
-            Problem(name, lines.get("kind"), "kind", f"expected one of {', '.join(SCHEMAS)}, got {kind!r}")
+            Problem(
+                name,
+                lines.get("kind"),
+                "kind",
+                f"expected one of {', '.join(SCHEMAS)}, got {kind!r}",
+            )
         )
         return []
     raw_entries = data.get("entries")
     if not isinstance(raw_entries, list):
-        problems.append(Problem(name, lines.get("entries"), "entries", "expected a list of entries"))
+        problems.append(
+            Problem(name, lines.get("entries"), "entries", "expected a list of entries")
+        )
         return []
     result = []
     for index, item in enumerate(raw_entries):
@@ -298,7 +309,12 @@ def _load_entry(
     entry_flag = str(item["flag"])
     if entry_flag not in FLAGS:
         problems.append(
-            Problem(name, lines.get(f"{where}.flag", line), f"{where}.flag", f"expected one of {FLAGS}, got {entry_flag!r}")
+            Problem(
+                name,
+                lines.get(f"{where}.flag", line),
+                f"{where}.flag",
+                f"expected one of {FLAGS}, got {entry_flag!r}",
+            )
         )
         return None
     fields: dict[str, Any] = {}
@@ -428,7 +444,9 @@ def _read_steps(raw: Any, source: str, flag: str) -> Sourced:
     steps = []
     for step in raw:
         if not isinstance(step, dict) or set(step) != {"supply_up_to", "value"}:
-            raise _FieldError(f"expected {{supply_up_to: <voltage>, value: <resistance>}}, got {step!r}")
+            raise _FieldError(
+                f"expected {{supply_up_to: <voltage>, value: <resistance>}}, got {step!r}"
+            )
         supply, _ = _quantity(step["supply_up_to"], "voltage")
         value, _ = _quantity(step["value"], "resistance")
         steps.append((supply, value))
@@ -441,10 +459,14 @@ def _read_steps(raw: Any, source: str, flag: str) -> Sourced:
 def _read_limit(raw: Any, source: str, flag: str) -> Limit:
     if isinstance(raw, dict):
         if len(raw) != 1 or next(iter(raw)) not in ("param", "window", "result"):
-            raise _FieldError("expected a value with a unit, {param: ID}, {window: FIELD} or {result: NAME}")
+            raise _FieldError(
+                "expected a value with a unit, {param: ID}, {window: FIELD} or {result: NAME}"
+            )
         kind, ref = next(iter(raw.items()))
         if kind == "window" and ref not in WINDOW_LIMITS:
-            raise _FieldError(f"window limit must be one of {', '.join(WINDOW_LIMITS)}, got {ref!r}")
+            raise _FieldError(
+                f"window limit must be one of {', '.join(WINDOW_LIMITS)}, got {ref!r}"
+            )
         return Limit(kind, str(ref))
     value, dim = _quantity(raw, "any")
     return Limit("quantity", value=Sourced(value, str(raw), source, flag, dim))
@@ -459,7 +481,9 @@ _WINDOW_DIMENSIONS = {
 }
 
 
-def limit_dimension(limit: Limit, entries: Mapping[str, Entry], known: Mapping[str, str]) -> str | None:
+def limit_dimension(
+    limit: Limit, entries: Mapping[str, Entry], known: Mapping[str, str]
+) -> str | None:
     """The dimension a limit is expressed in, or None when it cannot be told."""
     if limit.kind == "quantity" and limit.value is not None:
         return limit.value.dimension
@@ -485,7 +509,12 @@ def _cross_check(
         where = f"{entry.id}.reads"
         if reads not in known:
             problems.append(
-                Problem(entry.file, entry.line, where, f"unknown result {reads!r}; known: {', '.join(sorted(known))}")
+                Problem(
+                    entry.file,
+                    entry.line,
+                    where,
+                    f"unknown result {reads!r}; known: {', '.join(sorted(known))}",
+                )
             )
             continue
         dimension = known[reads]
@@ -493,16 +522,35 @@ def _cross_check(
         test = entry.get("test")
         if test == "is-true":
             if dimension != "flag":
-                problems.append(Problem(entry.file, entry.line, where, f"test is-true needs a yes/no result, {reads!r} is a {dimension}"))
+                problems.append(
+                    Problem(
+                        entry.file,
+                        entry.line,
+                        where,
+                        f"test is-true needs a yes/no result, {reads!r} is a {dimension}",
+                    )
+                )
             continue
         if limit is None:
-            problems.append(Problem(entry.file, entry.line, f"{entry.id}.limit", f"test {test!r} needs a limit"))
+            problems.append(
+                Problem(entry.file, entry.line, f"{entry.id}.limit", f"test {test!r} needs a limit")
+            )
             continue
-        if limit.kind == "param" and (limit.ref not in entries or entries[limit.ref].kind != "parameters"):
-            problems.append(Problem(entry.file, entry.line, f"{entry.id}.limit", f"unknown parameter {limit.ref!r}"))
+        if limit.kind == "param" and (
+            limit.ref not in entries or entries[limit.ref].kind != "parameters"
+        ):
+            problems.append(
+                Problem(
+                    entry.file, entry.line, f"{entry.id}.limit", f"unknown parameter {limit.ref!r}"
+                )
+            )
             continue
         if limit.kind == "result" and limit.ref not in known:
-            problems.append(Problem(entry.file, entry.line, f"{entry.id}.limit", f"unknown result {limit.ref!r}"))
+            problems.append(
+                Problem(
+                    entry.file, entry.line, f"{entry.id}.limit", f"unknown result {limit.ref!r}"
+                )
+            )
             continue
         limit_dim = limit_dimension(limit, entries, known)
         if limit_dim is not None and limit_dim != dimension:

@@ -15,10 +15,14 @@ SEVERITY_MARK = {"high": "!!! HIGH", "medium": "!!  MEDIUM", "low": "!   LOW", "
 
 
 def _table(headers: list[str], rows: list[list[str]], indent: str = "  ") -> list[str]:
-    widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h) for i, h in enumerate(headers)]
+    widths = [
+        max(len(h), *(len(r[i]) for r in rows)) if rows else len(h) for i, h in enumerate(headers)
+    ]
     lines = [indent + "  ".join(h.ljust(w) for h, w in zip(headers, widths, strict=True)).rstrip()]
     for row in rows:
-        lines.append(indent + "  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip())
+        lines.append(
+            indent + "  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip()
+        )
     return lines
 
 
@@ -40,14 +44,30 @@ def _charges(title: str, charges: tuple[ChargeResult, ...], label: str) -> list[
         ]
         for c in charges
     ]
-    headers = [label, "n", "footwear", "leak path", "C", "τ", "voltage", "charge", "spark", "settle"]
+    headers = [
+        label,
+        "n",
+        "footwear",
+        "leak path",
+        "C",
+        "τ",
+        "voltage",
+        "charge",
+        "spark",
+        "settle",
+    ]
     return [title, *_table(headers, rows), ""]
 
 
 def finding_lines(finding: Finding) -> list[str]:
-    lines = [f"  {SEVERITY_MARK[finding.severity]}  {finding.rule}  ({finding.subject})", f"      {finding.title}"]
+    lines = [
+        f"  {SEVERITY_MARK[finding.severity]}  {finding.rule}  ({finding.subject})",
+        f"      {finding.title}",
+    ]
     if finding.measured.value is not None and finding.limit.value is not None:
-        measured, limit = format_against_limit(finding.measured.value, finding.limit.value, finding.measured.unit)
+        measured, limit = format_against_limit(
+            finding.measured.value, finding.limit.value, finding.measured.unit
+        )
         lines.append(f"      measured {measured}, {finding.comparison} the limit {limit}")
     if finding.detail:
         lines.append(f"      {finding.detail}")
@@ -80,9 +100,12 @@ def render_text(results: Results) -> str:
     )
     out += [
         f"Floor ({fl.criteria}: {window or 'no limits'}): {'within the window' if fl.passed else 'OUTSIDE THE WINDOW'}",
-        "  readings " + "  ".join(
-            format_si(v, "Ω") + ("*" if i in fl.readings_outside else "") for i, v in enumerate(fl.readings_ohm)
-        ) + ("   (* outside)" if fl.readings_outside else ""),
+        "  readings "
+        + "  ".join(
+            format_si(v, "Ω") + ("*" if i in fl.readings_outside else "")
+            for i, v in enumerate(fl.readings_ohm)
+        )
+        + ("   (* outside)" if fl.readings_outside else ""),
         (
             f"  lowest {format_si(fl.min_ohm, 'Ω')}  highest {format_si(fl.max_ohm, 'Ω')}  "
             f"mean {format_si(fl.mean_ohm, 'Ω')}  geometric mean {format_si(fl.geometric_mean_ohm, 'Ω')}"
@@ -98,7 +121,10 @@ def render_text(results: Results) -> str:
     out += _charges("People", r.people, "role")
     out += _charges("Trolleys", r.trolleys, "name")
     if r.lowest_site_mie_J is not None:
-        out += [f"Lowest MIE in the room: {format_si(r.lowest_site_mie_J, 'J')} ({r.lowest_site_mie_fuel})", ""]
+        out += [
+            f"Lowest MIE in the room: {format_si(r.lowest_site_mie_J, 'J')} ({r.lowest_site_mie_fuel})",
+            "",
+        ]
     if r.preparations:
         rows = [
             [
@@ -110,11 +136,20 @@ def render_text(results: Results) -> str:
             ]
             for p in r.preparations
         ]
-        out += ["Preparations", *_table(["id", "flash point", "LFL", "saturated vapour", "film at"], rows), ""]
+        out += [
+            "Preparations",
+            *_table(["id", "flash point", "LFL", "saturated vapour", "film at"], rows),
+            "",
+        ]
     for case in r.cases:
         triad = case.triad
         sides = ", ".join(
-            name for name, present in (("oxidant", triad.oxidant), ("fuel", triad.fuel), ("ignition", triad.ignition))
+            name
+            for name, present in (
+                ("oxidant", triad.oxidant),
+                ("fuel", triad.fuel),
+                ("ignition", triad.ignition),
+            )
             if present
         )
         out += [
@@ -136,10 +171,13 @@ def render_text(results: Results) -> str:
                 f"safe to drape after {format_duration(case.safe_draping_after_s)}"
             )
         out.append(
-            "  materials that would keep burning: " + (", ".join(case.materials_sustain_burning) or "none")
+            "  materials that would keep burning: "
+            + (", ".join(case.materials_sustain_burning) or "none")
         )
         out.append("")
-    counts = {s: sum(1 for f in r.findings if f.severity == s) for s in ("high", "medium", "low", "note")}
+    counts = {
+        s: sum(1 for f in r.findings if f.severity == s) for s in ("high", "medium", "low", "note")
+    }
     summary = ", ".join(f"{n} {s}" for s, n in counts.items() if n) or "none"
     out.append(f"Findings: {summary}")
     for finding in sorted(r.findings, key=lambda f: severity_rank(f.severity)):

@@ -6,11 +6,10 @@ import json
 
 import yaml
 from click.testing import CliRunner
+from conftest import ROOT
 
 from ignite.cli import main
 from ignite.load import load_room_text
-
-from conftest import ROOT
 
 
 def run(*args: str):  # type: ignore[no-untyped-def]
@@ -28,14 +27,43 @@ def test_check_json_is_the_contract_record(room_data, write_room):
     result = run("check", str(write_room(room_data)), "--format", "json")
     assert result.exit_code == 0
     record = json.loads(result.stdout)
-    for key in ("format", "tool_version", "input_sha256", "room", "floor", "people", "trolleys",
-                "preparations", "cases", "findings"):
+    for key in (
+        "format",
+        "tool_version",
+        "input_sha256",
+        "room",
+        "floor",
+        "people",
+        "trolleys",
+        "preparations",
+        "cases",
+        "findings",
+    ):
         assert key in record
-    floor_keys = {"readings_ohm", "min_ohm", "max_ohm", "mean_ohm", "geometric_mean_ohm", "criteria",
-                  "window_low_ohm", "window_high_ohm", "passed", "shock_path_ohm", "shock_current_A"}
+    floor_keys = {
+        "readings_ohm",
+        "min_ohm",
+        "max_ohm",
+        "mean_ohm",
+        "geometric_mean_ohm",
+        "criteria",
+        "window_low_ohm",
+        "window_high_ohm",
+        "passed",
+        "shock_path_ohm",
+        "shock_current_A",
+    }
     assert floor_keys <= record["floor"].keys()
-    person_keys = {"role", "leak_resistance_ohm", "capacitance_F", "time_constant_s", "body_voltage_V",
-                   "stored_charge_C", "spark_energy_J", "settle_time_s"}
+    person_keys = {
+        "role",
+        "leak_resistance_ohm",
+        "capacitance_F",
+        "time_constant_s",
+        "body_voltage_V",
+        "stored_charge_C",
+        "spark_energy_J",
+        "settle_time_s",
+    }
     assert person_keys <= record["people"][0].keys()
     assert record["floor"]["min_ohm"] == 200e3
     finding_keys = {"rule", "severity", "subject", "measured", "limit", "source", "mitigations"}

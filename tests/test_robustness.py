@@ -64,12 +64,16 @@ def _set(data: dict[str, Any], path: tuple[str, ...], value: Any) -> None:
     data[path[-1]] = value
 
 
-@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@settings(
+    max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture]
+)
 @given(
     room_changes=st.lists(st.tuples(st.sampled_from(PATHS), numbers), max_size=3),
     case_changes=st.lists(st.tuples(st.sampled_from(CASE_PATHS), numbers), max_size=4),
     readings=st.lists(st.floats(min_value=1e-3, max_value=1e15), min_size=1, max_size=6),
-    footwear=st.sampled_from(["conductive", "esd", "antistatic", "insulating", "40 MΩ", "1 Ω", "0 Ω"]),
+    footwear=st.sampled_from(
+        ["conductive", "esd", "antistatic", "insulating", "40 MΩ", "1 Ω", "0 Ω"]
+    ),
 )
 def test_variations_never_crash(tmp_path, room_changes, case_changes, readings, footwear):
     data = copy.deepcopy(BASE_ROOM)

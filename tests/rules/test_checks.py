@@ -38,7 +38,9 @@ def test_reading_equal_to_an_inclusive_upper_limit_is_inside(room_data, assess_d
 
 def test_high_reading_is_a_medium_finding(room_data, assess_data):
     room_data["floor"]["point_to_ground"] = ["200 kΩ", "30 MΩ"]
-    finding = next(f for f in assess_data(room_data).findings if f.rule == "floor.reading-above-window")
+    finding = next(
+        f for f in assess_data(room_data).findings if f.rule == "floor.reading-above-window"
+    )
     assert finding.severity == "medium"
 
 

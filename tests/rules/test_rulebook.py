@@ -47,7 +47,11 @@ def _problems(directory: Path) -> str:
 def test_unknown_key_is_rejected_with_file_and_line(tmp_path):
     rules = _copy_rules(tmp_path)
     path = rules / "footwear.yaml"
-    path.write_text(path.read_text().replace("    resistance: 100 kΩ", "    resistance: 100 kΩ\n    colour: red"))
+    path.write_text(
+        path.read_text().replace(
+            "    resistance: 100 kΩ", "    resistance: 100 kΩ\n    colour: red"
+        )
+    )
     text = _problems(rules)
     assert "footwear.yaml:" in text and "colour" in text and "unknown key" in text
 
@@ -65,7 +69,9 @@ def test_duplicate_identifier_is_rejected(tmp_path):
 def test_unknown_result_is_rejected(tmp_path):
     rules = _copy_rules(tmp_path)
     path = rules / "checks.yaml"
-    path.write_text(path.read_text().replace("reads: floor.highest_reading", "reads: floor.tallest_reading"))
+    path.write_text(
+        path.read_text().replace("reads: floor.highest_reading", "reads: floor.tallest_reading")
+    )
     assert "unknown result 'floor.tallest_reading'" in _problems(rules)
 
 
