@@ -1,0 +1,403 @@
+"""`ignite audit`: a folder of rooms in; worksheets, a register and a summary out.
+
+The checks lean on references outside the project where there is one: the register's
+hashes against `hashlib` (FIPS 180-4 SHA-256), its CSV against the standard `csv`
+module, the worksheets and the summary against `pypdf`, and the floor verdicts against
+the IEC 60364-7-710 window for medical locations (each reading > 50 kΩ at a supply up
+to 500 V, and ≤ 25 MΩ; published, as adopted in NEK 400:710).
+"""
+
+from __future__ import annotations
+
+import copy
+import csv
+import hashlib
+import json
+from pathlib import Path
+from typing import Any
+
+import pytest
+import yaml
+from click.testing import CliRunner
+from conftest import BASE_ROOM
+from pypdf import PdfReader
+
+from ignite.audit import (
+    ASSESSED,
+    REGISTER_CSV,
+    REGISTER_JSON,
+    STAGING_PREFIX,
+    SUMMARY_PDF,
+    FindingKey,
+    RegisterRow,
+    compare,
+    discover_rooms,
+    read_register,
+)
+from ignite.cli import main
+
+
+def room(room_id: str, readings: list[str], **room_fields: Any) -> dict[str, Any]:
+    data = copy.deepcopy(BASE_ROOM)
+    data["room"]["id"] = room_id
+    data["room"]["name"] = f"Theatre {room_id}, Test Valley Clinic"
+    data["room"].update(room_fields)
+    data["floor"]["point_to_ground"] = readings
+    return data
+
+
+def write(folder: Path, name: str, data: dict[str, Any]) -> Path:
+    path = folder / name
+    path.parent.mkdir(parents=True, exist_ok=True)
+    path.write_text(yaml.safe_dump(data, allow_unicode=True, sort_keys=False), encoding="utf-8")
+    return path
+
+
+def audit(*args: str | Path) -> Any:
+    return CliRunner().invoke(main, ["audit", *map(str, args)], catch_exceptions=False)
+
+
+def csv_rows(path: Path) -> list[dict[str, str]]:
+    with path.open(newline="", encoding="utf-8") as handle:
+        return list(csv.DictReader(handle))
+
+
+def pdf_text(path: Path) -> str:
+    """The text of a PDF, white space folded (line breaks fall where the layout puts them)."""
+    return " ".join(" ".join(page.extract_text() for page in PdfReader(path).pages).split())
+
+
+def sha256(path: Path) -> str:
+    return hashlib.sha256(path.read_bytes()).hexdigest()
+
+
+def snapshot(folder: Path) -> dict[str, bytes]:
+    return {
+        p.relative_to(folder).as_posix(): p.read_bytes() for p in folder.rglob("*") if p.is_file()
+    }
+
+
+@pytest.fixture
+def site(tmp_path: Path) -> Path:
+    """Three valid rooms (one in a subfolder, one .yml) and a broken one."""
+    rooms = tmp_path / "rooms"
+    write(rooms, "t1.yaml", room("T1", ["200 kΩ", "300 kΩ", "400 kΩ"]))
+    # 25 MΩ is inside the window (≤ 25 MΩ, IEC 60364-7-710, published)
+    write(rooms, "east/t2.yml", room("T2", ["120 kΩ", "25 MΩ"]))
+    # 30 MΩ at point 3 is above it
+    write(rooms, "east/t3.yaml", room("T3", ["100 kΩ", "1 MΩ", "30 MΩ"]))
+    (rooms / "broken.yaml").write_text(
+        "format: 1\nroom:\n  id: BAD\nfloor:\n  point_to_ground: [5 kg]\n", encoding="utf-8"
+    )
+    (rooms / "notes.txt").write_text("not a room", encoding="utf-8")
+    return rooms
+
+
+def test_a_broken_room_never_stops_the_others(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "2")
+    assert result.exit_code == 3, result.output
+    # every valid room has its worksheet, a PDF that opens
+    for name in ("T1-2026-12-01.pdf", "T2-2026-12-01.pdf", "T3-2026-12-01.pdf"):
+        assert len(PdfReader(out / name).pages) >= 1
+    rows = {row["file"]: row for row in csv_rows(out / REGISTER_CSV)}
+    assert set(rows) == {"broken.yaml", "east/t2.yml", "east/t3.yaml", "t1.yaml"}
+    broken = rows["broken.yaml"]
+    assert broken["status"] == "invalid" and broken["worksheet"] == ""
+    assert "broken.yaml:" in broken["problems"] and "point_to_ground" in broken["problems"]
+    assert "broken.yaml" in result.stderr
+    # nothing half-written or staged is left behind
+    assert not [p for p in out.iterdir() if p.name.startswith(".")]
+    assert "never replace" in result.stderr
+
+
+def test_verdicts_follow_the_published_window(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    rows = {row["room_id"]: row for row in csv_rows(out / REGISTER_CSV) if row["room_id"]}
+    # IEC 60364-7-710 (published): each reading > 50 kΩ and ≤ 25 MΩ
+    assert rows["T1"]["floor_verdict"] == "pass"
+    assert rows["T2"]["floor_verdict"] == "pass"  # 25 MΩ exactly is allowed
+    assert rows["T3"]["floor_verdict"] == "fail"
+    assert rows["T3"]["points_outside"] == "3"
+    assert float(rows["T3"]["highest_reading_ohm"]) == 30e6
+    assert float(rows["T3"]["window_high_ohm"]) == 25e6
+    assert float(rows["T1"]["window_low_ohm"]) == 50e3
+    assert rows["T3"]["worst_severity"] != "none"
+    assert "floor.reading-above-window" in rows["T3"]["findings"]
+    assert "floor.reading" not in rows["T1"]["findings"]
+
+
+def test_register_csv_reads_back_and_its_hashes_match(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    rows = csv_rows(out / REGISTER_CSV)
+    assert len(rows) == len(discover_rooms(site)) == 4  # one row per room file
+    record = json.loads((out / REGISTER_JSON).read_text(encoding="utf-8"))
+    assert [r["file"] for r in record["rooms"]] == [r["file"] for r in rows]
+    for row, room_record in zip(rows, record["rooms"], strict=True):
+        # the input hash is SHA-256 of the file's bytes (FIPS 180-4, via hashlib)
+        assert row["input_sha256"] == sha256(site / row["file"]) == room_record["input_sha256"]
+        if row["status"] == ASSESSED:
+            assert row["worksheet_sha256"] == sha256(out / row["worksheet"])
+            readings = [float(r) for r in row["readings_ohm"].split(";")]
+            assert readings == room_record["readings_ohm"]
+            assert float(row["lowest_reading_ohm"]) == min(readings)
+            counts = sum(int(row[s]) for s in ("high", "medium", "low", "note"))
+            assert counts == len(row["findings"].splitlines()) == len(room_record["findings"])
+    assert record["totals"]["room_files"] == 4 and record["totals"]["invalid"] == 1
+    assert "never replace" in record["caution"]
+
+
+def test_changes_since_the_previous_audit(site: Path, tmp_path: Path) -> None:
+    first = tmp_path / "first"
+    assert audit(site, "-o", first, "--jobs", "1").exit_code == 3
+    # since then: T1 leaves its window, T3 re-enters it, T2 is removed, T4 is new
+    write(site, "t1.yaml", room("T1", ["200 kΩ", "40 MΩ", "400 kΩ"]))
+    write(site, "east/t3.yaml", room("T3", ["100 kΩ", "1 MΩ", "20 MΩ"]))
+    (site / "east/t2.yml").unlink()
+    write(site, "t4.yaml", room("T4", ["150 kΩ"]))
+    second = tmp_path / "second"
+    result = audit(site, "-o", second, "--jobs", "1", "--previous", first / REGISTER_JSON)
+    assert result.exit_code == 3, result.output
+
+    record = json.loads((second / REGISTER_JSON).read_text(encoding="utf-8"))
+    changes = {r["room_id"] or r["file"]: r["change_since_previous"] for r in record["rooms"]}
+    assert changes["T1"]["window_event"] == "left its window"
+    assert changes["T1"]["points_moved"] == [2]
+    assert changes["T1"]["readings_then_ohm"][1] == 300e3
+    assert changes["T1"]["readings_now_ohm"][1] == 40e6
+    assert {f["rule"] for f in changes["T1"]["findings_appeared"]} == {"floor.reading-above-window"}
+    assert changes["T3"]["window_event"] == "re-entered its window"
+    assert "floor.reading-above-window" in {f["rule"] for f in changes["T3"]["findings_cleared"]}
+    assert changes["T4"]["kind"] == "new"
+    assert [g["room_id"] for g in record["rooms_gone"]] == ["T2"]
+
+    csv_change = {r["room_id"]: r["change_since_previous"] for r in csv_rows(second / REGISTER_CSV)}
+    assert "left its window" in csv_change["T1"] and "#2 300 kΩ → 40 MΩ" in csv_change["T1"]
+
+    text = pdf_text(second / SUMMARY_PDF)
+    assert "Changes since the previous audit" in text
+    assert "Left their window: T1" in text and "Re-entered their window: T3" in text
+    assert "Gone since then: T2" in text and "New since then: T4" in text
+    assert "300 kΩ → 40 MΩ" in text
+    assert "Floor readings then and now" in text
+
+    # the CSV register of the first audit tells the same story as its JSON
+    third = tmp_path / "third"
+    audit(site, "-o", third, "--jobs", "1", "--previous", first / REGISTER_CSV)
+    again = json.loads((third / REGISTER_JSON).read_text(encoding="utf-8"))
+    assert [r["change_since_previous"] for r in again["rooms"]] == [
+        r["change_since_previous"] for r in record["rooms"]
+    ]
+
+
+def test_readings_changed_in_an_earlier_register_show_as_moved(site: Path, tmp_path: Path) -> None:
+    first = tmp_path / "first"
+    audit(site, "-o", first, "--jobs", "1")
+    rows = csv_rows(first / REGISTER_CSV)
+    for row in rows:
+        if row["room_id"] == "T1":
+            row["readings_ohm"] = "200000.0; 350000.0; 400000.0"
+    edited = tmp_path / "edited.csv"
+    with edited.open("w", newline="", encoding="utf-8") as handle:
+        writer = csv.DictWriter(handle, fieldnames=list(rows[0]))
+        writer.writeheader()
+        writer.writerows(rows)
+    second = tmp_path / "second"
+    audit(site, "-o", second, "--jobs", "1", "--previous", edited)
+    change = {r["room_id"]: r["change_since_previous"] for r in csv_rows(second / REGISTER_CSV)}
+    assert change["T1"] == "1 of 3 readings moved: #2 350 kΩ → 300 kΩ"
+    assert change["T2"] == change["T3"] == "no change"
+    assert "#2: 350 kΩ → 300 kΩ" in pdf_text(second / SUMMARY_PDF)
+
+
+def test_an_earlier_audit_is_never_overwritten_without_force(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    before = snapshot(out)
+    write(site, "t1.yaml", room("T1", ["200 kΩ", "40 MΩ", "400 kΩ"]))
+    refused = audit(site, "-o", out, "--jobs", "1")
+    assert refused.exit_code == 2
+    assert "--force" in refused.stderr and "nothing was written" in refused.stderr
+    assert snapshot(out) == before
+    forced = audit(site, "-o", out, "--jobs", "1", "--force")
+    assert forced.exit_code == 3  # the broken room is still there
+    rows = {r["room_id"]: r for r in csv_rows(out / REGISTER_CSV)}
+    assert rows["T1"]["floor_verdict"] == "fail"
+    assert rows["T1"]["worksheet_sha256"] == sha256(out / rows["T1"]["worksheet"])
+    assert (out / rows["T1"]["worksheet"]).read_bytes() != before[rows["T1"]["worksheet"]]
+
+
+def test_a_worksheet_of_another_origin_is_not_replaced(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    out.mkdir()
+    (out / "T1-2026-12-01.pdf").write_bytes(b"someone else's file")
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 2
+    assert sorted(p.name for p in out.iterdir()) == ["T1-2026-12-01.pdf"]
+    assert (out / "T1-2026-12-01.pdf").read_bytes() == b"someone else's file"
+
+
+def test_an_interrupted_audit_can_simply_be_run_again(site: Path, tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    complete = snapshot(out)
+    # as if stopped after the worksheets were in place but before the register, and with
+    # a staging folder left by a process that no longer exists
+    for name in (REGISTER_CSV, REGISTER_JSON, SUMMARY_PDF):
+        (out / name).unlink()
+    stale = out / f"{STAGING_PREFIX}999999999-x"
+    stale.mkdir()
+    (stale / "000000.pdf").write_bytes(b"%PDF half")
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 3
+    assert snapshot(out) == complete  # same files, same bytes: the build is deterministic
+
+
+def test_the_outputs_do_not_depend_on_the_number_of_workers(site: Path, tmp_path: Path) -> None:
+    one, two = tmp_path / "one", tmp_path / "two"
+    audit(site, "-o", one, "--jobs", "1")
+    audit(site, "-o", two, "--jobs", "2")
+    assert snapshot(one) == snapshot(two)
+
+
+def test_summary_lists_rooms_verdicts_worst_findings_and_cautions(
+    site: Path, tmp_path: Path
+) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1", "--paper", "letter")
+    reader = PdfReader(out / SUMMARY_PDF)
+    text = pdf_text(out / SUMMARY_PDF)
+    for expected in (
+        "Rooms and their verdicts",
+        "✘ FAIL",
+        "✔ PASS",
+        "T3",
+        "broken.yaml",
+        "The worst findings across the site",
+        "never replace",
+        "licensed professional",
+    ):
+        assert expected in text
+    total = len(reader.pages)
+    for number, page in enumerate(reader.pages, start=1):
+        footer = page.extract_text()
+        assert f"Page {number} of {total}" in footer and "ignite " in footer
+        assert "Rules SHA-256" in footer
+    width, height = float(reader.pages[0].mediabox.width), float(reader.pages[0].mediabox.height)
+    assert (round(width), round(height)) == (612, 792)  # US letter, 8.5 × 11 in (ANSI/ASME Y14.1)
+
+
+def test_warnings_reach_the_register_and_the_summary(tmp_path: Path) -> None:
+    rooms = tmp_path / "rooms"
+    write(rooms, "w.yaml", room("W1", ["200 kΩ", "2 TΩ"]))  # 2 TΩ: accepted, but unusual
+    out = tmp_path / "out"
+    audit(rooms, "-o", out, "--jobs", "1")
+    (row,) = csv_rows(out / REGISTER_CSV)
+    assert "point_to_ground[1]" in row["warnings"]
+    text = pdf_text(out / SUMMARY_PDF)
+    assert "Unusual input, accepted" in text and "point_to_ground[1]" in text
+
+
+def test_fail_on_sets_the_exit_code_when_every_room_is_valid(site: Path, tmp_path: Path) -> None:
+    (site / "broken.yaml").unlink()
+    assert audit(site, "-o", tmp_path / "a", "--jobs", "1").exit_code == 0
+    assert audit(site, "-o", tmp_path / "b", "--jobs", "1", "--fail-on", "medium").exit_code == 1
+
+
+def test_two_rooms_with_one_worksheet_name_keep_both(tmp_path: Path) -> None:
+    rooms = tmp_path / "rooms"
+    write(rooms, "a.yaml", room("T1", ["200 kΩ"]))
+    write(rooms, "b.yaml", room("T1", ["300 kΩ"]))
+    out = tmp_path / "out"
+    assert audit(rooms, "-o", out, "--jobs", "1").exit_code == 0
+    rows = csv_rows(out / REGISTER_CSV)
+    assert [r["worksheet"] for r in rows] == ["T1-2026-12-01.pdf", "T1-2026-12-01-2.pdf"]
+    assert "saved as T1-2026-12-01-2.pdf" in rows[1]["problems"]
+    for row in rows:
+        assert sha256(out / row["worksheet"]) == row["worksheet_sha256"]
+
+
+def test_an_internal_error_is_listed_and_the_rest_carry_on(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import ignite.pipeline
+
+    real = ignite.pipeline.run_room
+
+    def failing(path: Path, book: Any) -> Any:
+        if path.name == "t1.yaml":
+            raise ZeroDivisionError("simulated")
+        return real(path, book)
+
+    monkeypatch.setattr(ignite.pipeline, "run_room", failing)
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 3
+    rows = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}
+    assert (
+        rows["t1.yaml"]["status"] == "error" and "ZeroDivisionError" in rows["t1.yaml"]["problems"]
+    )
+    assert rows["east/t3.yaml"]["status"] == "assessed"
+
+
+def test_usage_errors(site: Path, tmp_path: Path) -> None:
+    empty = tmp_path / "empty"
+    empty.mkdir()
+    assert audit(empty, "-o", tmp_path / "out").exit_code == 2
+    not_a_register = tmp_path / "x.json"
+    not_a_register.write_text("[1, 2]", encoding="utf-8")
+    result = audit(site, "-o", tmp_path / "out", "--previous", not_a_register)
+    assert result.exit_code == 2 and "not an audit register" in result.output
+    assert not (tmp_path / "out").exists()
+
+
+def test_compare_pairs_rooms_by_id_then_by_file() -> None:
+    then = [
+        RegisterRow(
+            "old/a.yaml", ASSESSED, room_id="A", floor_passed=True, readings_ohm=(1e5, 2e5)
+        ),
+        RegisterRow("b.yaml", "invalid"),
+        RegisterRow(
+            "c.yaml",
+            ASSESSED,
+            room_id="C",
+            floor_passed=True,
+            readings_ohm=(1e5,),
+            findings=(FindingKey("x.rule", "floor", "low"),),
+        ),
+    ]
+    now = [
+        RegisterRow(
+            "new/a.yaml", ASSESSED, room_id="A", floor_passed=False, readings_ohm=(1e5, 3e7, 2e5)
+        ),
+        RegisterRow("b.yaml", ASSESSED, room_id="B", floor_passed=True, readings_ohm=(1e5,)),
+    ]
+    changes = {c.room_id or c.file: c for c in compare(then, now)}
+    a = changes["A"]
+    assert a.kind == "compared" and a.window_event == "left its window"
+    assert a.moved == (2, 3)  # point 2 changed, point 3 is new
+    assert changes["B"].kind == "compared" and changes["B"].status_then == "invalid"
+    assert changes["B"].moved == () and "status invalid → assessed" in changes["B"].describe()
+    assert changes["C"].kind == "gone"
+
+
+def test_read_register_rejects_what_is_not_one(tmp_path: Path) -> None:
+    from ignite.audit import RegisterError
+
+    path = tmp_path / "r.csv"
+    path.write_bytes(b"a,b\n1,2\n")
+    with pytest.raises(RegisterError):
+        read_register(path)
+    path.write_bytes(b"\xff\xfe\x00")
+    with pytest.raises(RegisterError):
+        read_register(path)
+
+
+def test_discovery_is_recursive_sorted_and_skips_hidden(tmp_path: Path) -> None:
+    for name in ("b.yaml", "a/c.YML", "a/b.yaml", ".hidden/x.yaml", "a/.x.yaml", "z.txt"):
+        (tmp_path / name).parent.mkdir(parents=True, exist_ok=True)
+        (tmp_path / name).write_text("", encoding="utf-8")
+    found = [p.relative_to(tmp_path).as_posix() for p in discover_rooms(tmp_path)]
+    assert found == ["a/b.yaml", "a/c.YML", "b.yaml"]
