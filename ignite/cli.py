@@ -180,7 +180,7 @@ def assess(
 @click.argument("rule_id", required=False)
 @rules_option
 def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
-    from ignite.rulebook import describe
+    from ignite.pipeline import rule_rows
 
     book = _open_rules(rules_dir)
     entries = list(book.entries.values())
@@ -191,23 +191,21 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
                 f"no rule or value with id {rule_id!r}; `ignite rules` lists them all"
             )
     click.echo(f"Rules in force: {book.directory}  (sha256 {book.digest[:16]}…)")
+    wanted = {e.id for e in entries}
     kind = None
-    for entry in entries:
-        if entry.kind != kind:
-            kind = entry.kind
+    for row in rule_rows(book):
+        if row.id not in wanted:
+            continue
+        if row.kind != kind:
+            kind = row.kind
             click.echo(f"\n[{kind}]")
-        click.echo(f"{entry.id}: {entry.title}")
-        threshold = describe(entry)
-        if entry.kind == "checks":
-            threshold = (
-                f"{entry.get('severity')} when {entry.get('reads')} {entry.get('test')} "
-                + threshold
-            )
-        if threshold:
-            click.echo(f"    {threshold}")
-        click.echo(f"    source: {entry.source} [{entry.flag}]")
-        if entry.note:
-            click.echo(f"    note: {entry.note}")
+        click.echo(f"{row.id}: {row.title}")
+        if row.threshold:
+            click.echo(f"    {row.threshold}")
+        click.echo(f"    source: {row.source} [{row.flag}]")
+        note = book.entry(row.id).note
+        if note:
+            click.echo(f"    note: {note}")
 
 
 @main.command(help="Write a commented template room file that loads cleanly.")

@@ -177,16 +177,22 @@ def _case_context(scope: Scope, case: CaseResult) -> dict[str, Any]:
     else:
         stop = "The site is at or below the enriched limit when the ignition source is first used."
     if case.safe_draping_after_s is not None and case.prep_flammable:
-        wait = max(case.safe_draping_after_s, label_minimum or 0.0)
-        if case.hair and label_hair:
-            drape = (
-                f"Drape no earlier than {format_duration(_round_up(wait))} after the prep (computed), "
-                f"and follow the label: in hair, drying can take up to {format_duration(label_hair)}."
-            )
+        wait = _round_up(max(case.safe_draping_after_s, label_minimum or 0.0))
+        drape = f"Drape no earlier than {format_duration(wait)} after the end of the prep"
+        if case.safe_draping_after_s >= (label_minimum or 0.0):
+            drape += " (computed: keeps the drape pocket within the margin of the LFL)."
         else:
-            drape = (
-                f"Drape no earlier than {format_duration(_round_up(wait))} after the prep (computed, and never "
-                f"before the label's {format_duration(label_minimum)})."
+            drape += f" (the label's minimum; the computed pocket limit is {format_duration(_round_up(case.safe_draping_after_s))})."
+        if case.hair or case.pooling:
+            where = "in hair" if case.hair else "where it pooled"
+            drape += (
+                f" The liquid {where} is computed to stay wet for {format_duration(case.drying_time_s)}"
+                + (
+                    f" (the label allows up to {format_duration(label_hair)} in hair)"
+                    if case.hair and label_hair
+                    else ""
+                )
+                + ": blot it, and keep ignition sources away until it is dry."
             )
     else:
         drape = "No flammable prep in this case."

@@ -42,9 +42,7 @@ def rule_rows(book: Rulebook) -> list[RuleRow]:
 
     rows = []
     for entry in book.entries.values():
-        threshold = describe(entry)
-        if entry.kind == "checks":
-            threshold = f"{entry.get('severity')} when {entry.get('reads')} {entry.get('test')} {threshold}".strip()
+        threshold = describe(entry, book.entries)
         rows.append(RuleRow(entry.id, entry.kind, entry.title, threshold, entry.source, entry.flag))
     return rows
 

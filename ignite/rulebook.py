@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import hashlib
 import math
-from collections.abc import Callable, Iterable, Mapping
+from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -564,9 +564,40 @@ def _cross_check(
             )
 
 
-def describe(entry: Entry, formatter: Callable[[float, str], str] | None = None) -> str:
-    """The threshold or values of an entry in one line, as written in the rule file."""
-    skip = {"names", "mitigations", "detail", "group", "match", "x", "y", "cas", "kind"}
+_TEST_WORDS = {
+    "above": "is above",
+    "at-or-above": "is at or above",
+    "below": "is below",
+    "at-or-below": "is at or below",
+    "is-true": "holds",
+}
+
+
+def _limit_text(limit: Limit, entries: Mapping[str, Entry]) -> str:
+    if limit.kind == "quantity" and limit.value is not None:
+        return limit.value.text
+    if limit.kind == "param":
+        entry = entries.get(limit.ref)
+        value = entry.sourced("value").text if entry is not None else "?"
+        return f"{value} ({limit.ref})"
+    if limit.kind == "window":
+        return f"the floor window's {limit.ref.replace('_', ' ')} limit"
+    return f"that subject's {limit.ref}"
+
+
+def describe(entry: Entry, entries: Mapping[str, Entry] | None = None) -> str:
+    """The threshold or values of an entry in one line, as `ignite rules` and the appendix print it."""
+    if entry.kind == "checks":
+        reads = entry.get("reads")
+        test = entry.get("test")
+        limit = entry.get("limit")
+        text = f"{entry.get('severity')} finding when {reads} {_TEST_WORDS[test]}"
+        if limit is not None:
+            text += " " + _limit_text(limit, entries or {})
+        return text
+    if entry.kind == "windows":
+        return _window_text(entry)
+    skip = {"names", "match", "x", "y", "cas", "kind"}
     parts = []
     for key, item in entry.fields.items():
         if key in skip:
@@ -575,9 +606,40 @@ def describe(entry: Entry, formatter: Callable[[float, str], str] | None = None)
             text = item.text
             if item.source != entry.source or item.flag != entry.flag:
                 text += f" ({item.flag}: {item.source})"
-            parts.append(f"{key} {text}" if key != "value" else text)
-        elif isinstance(item, Limit):
-            parts.append(f"limit {item.value.text if item.value else f'{item.kind} {item.ref}'}")
+            parts.append(text if key == "value" else f"{key.replace('_', ' ')} {text}")
         else:
-            parts.append(f"{key} {item}")
+            parts.append(f"{key.replace('_', ' ')} {item}")
+    return "; ".join(parts)
+
+
+def _provenance(entry: Entry, name: str) -> str:
+    item = entry.sourced(name)
+    if item.source != entry.source or item.flag != entry.flag:
+        return f" ({item.flag}: {item.source})"
+    return ""
+
+
+def _window_text(entry: Entry) -> str:
+    parts = []
+    if entry.has("low"):
+        sign = "≥" if entry.get("low_inclusive", False) else ">"
+        steps = entry.sourced("low").text.split(", ")
+        parts.append(
+            "each reading "
+            + ", ".join(f"{sign} {step.replace(' up to ', ' at supply ≤ ')}" for step in steps)
+        )
+    if entry.has("high"):
+        sign = "≤" if entry.get("high_inclusive", True) else "<"
+        parts.append(
+            f"each reading {sign} {entry.sourced('high').text}{_provenance(entry, 'high')}"
+        )
+    if entry.has("mean_low"):
+        count = int(entry.get("mean_min_readings", 1))
+        parts.append(
+            f"average of {count} or more readings > {entry.sourced('mean_low').text}{_provenance(entry, 'mean_low')}"
+        )
+    if entry.has("system_high"):
+        parts.append(f"person + footwear + floor < {entry.sourced('system_high').text}")
+    if entry.has("walking_voltage_high"):
+        parts.append(f"walking body voltage < {entry.sourced('walking_voltage_high').text}")
     return "; ".join(parts)

@@ -163,7 +163,9 @@ def render_text(results: Results) -> str:
             f"  MIE at the site {format_si(case.mie_J, 'J')} ({case.mie_fuel or 'no fuel'}); "
             f"largest spark in the room {format_si(case.largest_spark_J, 'J')}",
         ]
-        if case.drying_time_s is not None:
+        if case.preparation and not case.prep_flammable:
+            out.append(f"  prep {case.preparation}: no flammable component")
+        elif case.drying_time_s is not None:
             out.append(
                 f"  prep dries in {format_duration(case.drying_time_s)}; drapes at "
                 f"{format_duration(case.draping_after_s)}, first activation at {format_duration(case.first_activation_after_s)}; "
