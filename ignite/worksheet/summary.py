@@ -160,6 +160,8 @@ def _points(points: Sequence[int]) -> str:
 
 
 def _amount(value: float | None, unit: str, limit: float | None = None) -> tuple[str, str]:
+    if limit is None and not unit and value:  # a yes/no finding: the condition is present
+        return "present", "—"
     if value is not None and limit is not None and not isinstance(value, bool):
         return format_against_limit(value, limit, unit)
     return format_si(value, unit), format_si(limit, unit)
