@@ -59,7 +59,7 @@ METHODS: tuple[MethodRef, ...] = (
     ),
     MethodRef(
         "Film evaporation, Sh = 0.664·Re^½·Sc^⅓ with a natural-convection floor",
-        "laminar flat plate (Welty–Wicks–Wilson); diffusivities Fuller–Schettler–Giddings (Poling et al.)",
+        "laminar flat-plate boundary layer (Pohlhausen); diffusivities Welty–Wicks–Wilson, else Fuller–Schettler–Giddings (Poling et al. eq. 11-4.4)",
     ),
     MethodRef("Drape pocket, well mixed: V·dc/dt = source − Q·c", "continuous stirred volume"),
     MethodRef("Oxygen under drapes, C(t) = 0.209 + (C0 − 0.209)·e^(−Q·t/V)", "well-mixed washout"),

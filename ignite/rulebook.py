@@ -21,7 +21,7 @@ from ignite.errors import Problem, RuleFileError, UnitError
 from ignite.source import load_yaml
 from ignite.units import parse_quantity
 
-FLAGS = ("published", "memory", "common practice")
+FLAGS = ("published", "memory", "common practice", "assumption")
 SEVERITIES = ("high", "medium", "low", "note")
 TESTS = ("above", "at-or-above", "below", "at-or-below", "is-true")
 WINDOW_LIMITS = ("low", "high", "mean_low", "system_high", "walking_voltage_high")
@@ -376,6 +376,7 @@ _ANY_DIMENSIONS = (
     "speed",
     "length",
     "area",
+    "diffusivity",
 )
 
 

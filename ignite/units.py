@@ -51,6 +51,7 @@ DIMENSIONS: dict[str, str] = {
     "mass": "[mass]",
     "time": "[time]",
     "speed": "[length]/[time]",
+    "diffusivity": "[length]**2/[time]",
 }
 
 # The SI unit each dimension is returned in.
@@ -74,6 +75,7 @@ SI_UNITS: dict[str, str] = {
     "mass": "kilogram",
     "time": "second",
     "speed": "meter/second",
+    "diffusivity": "meter**2/second",
 }
 
 # Shown in error messages: one correct way to write each dimension.
@@ -97,6 +99,7 @@ EXAMPLES: dict[str, str] = {
     "mass": "10 g",
     "time": "3 min",
     "speed": "0.2 m/s",
+    "diffusivity": "0.26 cm^2/s",
 }
 
 _NOUNS: dict[str, str] = {

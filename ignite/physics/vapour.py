@@ -1,0 +1,724 @@
+"""Flammable preparations: what a liquid is made of and what vapour it gives off.
+
+Composition by volume or mass → liquid mole fractions; UNIFAC activity coefficients;
+vapour pressures; the mixture flash point by Liaw et al. (2002); the mixture LFL by
+Le Chatelier's rule.
+
+Pure-substance data come from the tables shipped with `chemicals` and `thermo`, always
+by a named method:
+
+- flash point, LFL, UFL, autoignition temperature: IEC 60079-20-1:2010 and
+  NFPA 497:2008 (`FIRE_DATA_METHODS`), the value on the safe side where both have
+  one (ethanol ignites at 363 °C in NFPA 497, at 400 °C in IEC 60079-20-1). The
+  `chemicals` package's other flash-point sources are never used: its
+  group-contribution set (Serat et al., 2017) puts ethanol at −13 °C against 12 °C
+  in IEC 60079-20-1.
+- vapour pressure: the first correlation in `VAPOUR_PRESSURE_METHODS` that `thermo` has
+  for the substance and whose fitted range covers 0 °C (or 20 K below the flash point)
+  to 120 °C; liquid density: the first in `DENSITY_METHODS`.
+
+Mole fractions are [-], temperatures [K], pressures [Pa], molar masses [kg/mol],
+densities [kg/m³], molar volumes [m³/mol]. `chemicals` and `thermo` load slowly, so
+they are imported inside the functions that use them.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Any
+
+__all__ = [
+    "DENSITY_METHODS",
+    "FIRE_DATA_METHODS",
+    "STANDARD_PRESSURE",
+    "VAPOUR_PRESSURE_METHODS",
+    "VOLUME_BASIS_TEMPERATURE",
+    "PreparationAnalysis",
+    "Substance",
+    "SubstanceDataError",
+    "UnknownSubstance",
+    "activity_coefficients_unifac",
+    "activity_model",
+    "analyse_preparation",
+    "bubble_point",
+    "fraction_of_lfl",
+    "lfl_le_chatelier",
+    "liaw_sum",
+    "liquid_molar_volume",
+    "mixture_flash_point",
+    "mole_fractions_from_mass",
+    "mole_fractions_from_volume",
+    "partial_pressures",
+    "substance",
+    "vapour_pressure",
+]
+
+STANDARD_PRESSURE = 101325.0
+"""Standard atmosphere [Pa] (ISO 2533); the pressure at which flash points are tabulated."""
+
+VOLUME_BASIS_TEMPERATURE = 293.15
+"""Temperature at which a strength 'by volume' is stated [K]: 20 °C, the reference of the
+international alcoholometric tables (OIML R 22; memory)."""
+
+FIRE_DATA_METHODS = ("IEC 60079-20-1 (2010)", "NFPA 497 (2008)")
+"""Sources for flash point, LFL, UFL and autoignition temperature. Where both give a
+value, the one on the safe side is used (lower flash point, LFL and autoignition
+temperature; higher UFL), and the result names it."""
+
+VAPOUR_PRESSURE_METHODS: dict[str, str] = {
+    "IAPWS_PSAT": "IAPWS-95 saturation pressure (Wagner & Pruss 2002)",
+    "WAGNER_MCGARRY": "Wagner equation, McGarry (1983) coefficients",
+    "WAGNER_POLING": "Wagner equation, Poling et al. (2001) coefficients",
+    "HEOS_FIT": "fit to the reference Helmholtz equation of state",
+    "DIPPR_PERRY_8E": "DIPPR 101 equation, Perry's Handbook 8th ed.",
+    "VDI_PPDS": "PPDS equation, VDI Heat Atlas (2010)",
+    "ANTOINE_EXTENDED_POLING": "extended Antoine equation, Poling et al. (2001)",
+    "ANTOINE_POLING": "Antoine equation, Poling et al. (2001)",
+    "LANDOLT": "Antoine equation, Landolt-Börnstein",
+}
+"""`thermo` vapour-pressure methods in order of preference, with the names reports print."""
+
+DENSITY_METHODS: dict[str, str] = {
+    "HEOS_FIT": "fit to the reference Helmholtz equation of state",
+    "DIPPR_PERRY_8E": "DIPPR 105 equation, Perry's Handbook 8th ed.",
+    "VDI_PPDS": "PPDS equation, VDI Heat Atlas (2010)",
+    "VDI_TABULAR": "VDI Heat Atlas (2010) tables",
+    "CRC_INORG_L_CONST": "CRC Handbook, inorganic liquids",
+}
+"""`thermo` liquid-density methods in order of preference, with the names reports print."""
+
+_UNIFAC_NAME = "UNIFAC (original; Fredenslund, Jones & Prausnitz 1975) as shipped by thermo"
+
+
+class SubstanceDataError(ValueError):
+    """A substance lacks data that the requested calculation cannot do without."""
+
+    def __init__(self, name: str, reason: str) -> None:
+        super().__init__(f"{name!r}: {reason}")
+        self.name = name
+        self.reason = reason
+
+
+class UnknownSubstance(SubstanceDataError):
+    """A component name or CAS number that `chemicals` cannot resolve."""
+
+    def __init__(self, name: str) -> None:
+        super().__init__(name, "not a substance name or CAS number known to the chemicals tables")
+
+
+@dataclass(frozen=True)
+class Substance:
+    """One pure substance and the data this module uses, each with the method it came from.
+
+    Any datum may be None where no named source has it; `methods` says where each
+    of the others came from.
+    """
+
+    name: str  # common name as resolved by `chemicals`
+    cas: str
+    formula: str
+    molar_mass: float  # kg/mol
+    unifac_groups: tuple[tuple[int, int], ...]  # (original UNIFAC subgroup id, count)
+    flash_point: float | None  # K, closed cup
+    lfl: float | None  # mole fraction in air
+    ufl: float | None  # mole fraction in air
+    autoignition: float | None  # K
+    vapour_pressure_method: str | None  # key of VAPOUR_PRESSURE_METHODS
+    density_method: str | None  # key of DENSITY_METHODS
+    methods: tuple[str, ...] = ()
+
+    @property
+    def flammable(self) -> bool:
+        """True when a named source gives an LFL: the substance counts as fuel."""
+        return self.lfl is not None
+
+    @property
+    def volatile(self) -> bool:
+        """True when a vapour-pressure correlation exists for the substance."""
+        return self.vapour_pressure_method is not None
+
+
+@lru_cache(maxsize=256)
+def substance(name: str) -> Substance:
+    """Resolve a common name or CAS number and gather the data for it.
+
+    Raises UnknownSubstance when `chemicals` does not know the name.
+
+    >>> s = substance("isopropyl alcohol")
+    >>> s.cas, s.flash_point, s.lfl           # IEC 60079-20-1:2010 via chemicals
+    ('67-63-0', 285.15, 0.02)
+    """
+    text = name.strip()
+    if not text:
+        raise UnknownSubstance(name)
+    from chemicals import CAS_from_any
+    from chemicals.identifiers import search_chemical
+    from thermo.unifac import UNIFAC_group_assignment_DDBST
+
+    try:
+        cas = CAS_from_any(text)
+    except ValueError:
+        raise UnknownSubstance(name) from None
+    metadata = search_chemical(cas)
+    common = metadata.common_name or text
+
+    methods: list[str] = []
+    fire: dict[str, tuple[float | None, str | None]] = {}
+    for quantity, value_and_method in _fire_data(cas).items():
+        fire[quantity] = value_and_method
+        value, method = value_and_method
+        if value is not None:
+            methods.append(f"{common} {quantity}: {method}")
+
+    flash_point = fire["flash point"][0]
+    span_low = min(273.15, flash_point - 20.0) if flash_point is not None else 273.15
+    psat_method = _preferred_method(
+        _vapour_pressure_model(cas), VAPOUR_PRESSURE_METHODS, (span_low, 393.15)
+    )
+    if psat_method is not None:
+        methods.append(f"{common} vapour pressure: {VAPOUR_PRESSURE_METHODS[psat_method]}")
+    density_method = _preferred_method(_liquid_volume_model(cas), DENSITY_METHODS)
+    if density_method is not None:
+        methods.append(f"{common} liquid density: {DENSITY_METHODS[density_method]}")
+
+    groups = UNIFAC_group_assignment_DDBST(cas, "UNIFAC") or {}
+    return Substance(
+        name=common,
+        cas=cas,
+        formula=metadata.formula,
+        molar_mass=metadata.MW / 1000.0,
+        unifac_groups=tuple(sorted((int(k), int(v)) for k, v in groups.items())),
+        flash_point=flash_point,
+        lfl=fire["LFL"][0],
+        ufl=fire["UFL"][0],
+        autoignition=fire["autoignition temperature"][0],
+        vapour_pressure_method=psat_method,
+        density_method=density_method,
+        methods=tuple(methods),
+    )
+
+
+def _fire_data(cas: str) -> dict[str, tuple[float | None, str | None]]:
+    """Flash point, LFL, UFL and autoignition temperature from FIRE_DATA_METHODS only.
+
+    Where both sources give a value, the one on the safe side is kept: the lower flash
+    point, LFL and autoignition temperature, the higher UFL.
+    """
+    from chemicals import safety
+
+    lookups: dict[str, tuple[Callable[..., Any], Callable[..., Any], bool, bool]] = {
+        # quantity: (getter, method lister, keyword call, safe side is the higher value)
+        "flash point": (safety.T_flash, safety.T_flash_methods, False, False),
+        "LFL": (safety.LFL, safety.LFL_methods, True, False),
+        "UFL": (safety.UFL, safety.UFL_methods, True, True),
+        "autoignition temperature": (
+            safety.T_autoignition,
+            safety.T_autoignition_methods,
+            False,
+            False,
+        ),
+    }
+    found: dict[str, tuple[float | None, str | None]] = {}
+    for quantity, (getter, lister, by_keyword, higher_is_safe) in lookups.items():
+        available = lister(CASRN=cas) if by_keyword else lister(cas)
+        candidates: list[tuple[float, str]] = []
+        for method in FIRE_DATA_METHODS:
+            if method in available:
+                value = getter(CASRN=cas, method=method) if by_keyword else getter(cas, method)
+                if value is not None:
+                    candidates.append((float(value), method))
+        if not candidates:
+            found[quantity] = (None, None)
+            continue
+        sign = -1.0 if higher_is_safe else 1.0
+        # min() keeps the first of equal values: IEC 60079-20-1 before NFPA 497.
+        found[quantity] = min(candidates, key=lambda pair: sign * pair[0])
+    return found
+
+
+@lru_cache(maxsize=256)
+def _vapour_pressure_model(cas: str) -> Any:
+    from thermo import VaporPressure
+
+    return VaporPressure(CASRN=cas)
+
+
+@lru_cache(maxsize=256)
+def _liquid_volume_model(cas: str) -> Any:
+    from chemicals import MW
+    from thermo import VolumeLiquid
+
+    return VolumeLiquid(CASRN=cas, MW=MW(cas))
+
+
+def _preferred_method(
+    model: Any, preference: dict[str, str], span: tuple[float, float] | None = None
+) -> str | None:
+    """The first method in `preference` that the model has and whose fitted range covers
+    `span` [K]; failing that, the one whose range reaches lowest."""
+    available = [m for m in preference if m in model.all_methods]
+    if not available:
+        return None
+    if span is None:
+        return available[0]
+    for method in available:
+        low, high = model.T_limits[method]
+        if low <= span[0] and high >= span[1]:
+            return method
+    return min(available, key=lambda m: model.T_limits[m][0])
+
+
+def _temperature_limits(cas: str) -> tuple[float, float]:
+    """Range [K] over which the chosen vapour-pressure correlation was fitted."""
+    found = substance(cas)
+    low, high = _vapour_pressure_model(found.cas).T_limits[found.vapour_pressure_method]
+    return float(low), float(high)
+
+
+def vapour_pressure(cas: str, temperature: float) -> float:
+    """Saturated vapour pressure of a pure liquid [Pa], by the method `substance` names.
+
+    cas : CAS number (or any name `substance` resolves);  temperature [K]
+    Returns 0 for a substance with no vapour-pressure correlation (a non-volatile active).
+
+    >>> round(vapour_pressure("7732-18-5", 298.15), 0)   # IAPWS-95: 3169.9 Pa at 25 °C
+    3170.0
+    """
+    found = substance(cas)
+    if found.vapour_pressure_method is None:
+        return 0.0
+    model = _vapour_pressure_model(found.cas)
+    return float(model.calculate(temperature, found.vapour_pressure_method))
+
+
+def liquid_molar_volume(cas: str, temperature: float) -> float:
+    """Molar volume of a pure liquid [m³/mol], by the method `substance` names.
+
+    Raises SubstanceDataError when no density correlation exists for the substance.
+
+    >>> round(0.01801528 / liquid_molar_volume("7732-18-5", 293.15), 1)  # water, 998.2 kg/m³
+    998.2
+    """
+    found = substance(cas)
+    if found.density_method is None:
+        raise SubstanceDataError(found.name, "no liquid density in the thermo tables")
+    return float(_liquid_volume_model(found.cas).calculate(temperature, found.density_method))
+
+
+def mole_fractions_from_volume(
+    fractions: Sequence[float], molar_masses: Sequence[float], densities: Sequence[float]
+) -> tuple[float, ...]:
+    """Liquid mole fractions from volume fractions of the pure, unmixed liquids.
+
+        n_i = φ_i · ρ_i / M_i,    x_i = n_i / Σ n_j
+
+    fractions : volume fractions φ_i [-] (need not sum to 1: normalised here)
+    molar_masses : M_i [kg/mol];  densities : pure-liquid ρ_i [kg/m³] at the
+    temperature the strength is stated for.
+    Volume contraction on mixing (about 3 % for alcohol–water) is not modelled.
+
+    Worked example, 70 % v/v ethanol in water at 20 °C (ρ 789.4 and 998.2 kg/m³,
+    handbook values; M 46.07 and 18.02 g/mol):
+
+    >>> [round(x, 3) for x in mole_fractions_from_volume(
+    ...     [0.7, 0.3], [0.04607, 0.01802], [789.4, 998.2])]
+    [0.419, 0.581]
+    """
+    _check_fractions(fractions)
+    moles = [f * rho / m for f, rho, m in zip(fractions, densities, molar_masses, strict=True)]
+    return _normalise(moles)
+
+
+def mole_fractions_from_mass(
+    fractions: Sequence[float], molar_masses: Sequence[float]
+) -> tuple[float, ...]:
+    """Liquid mole fractions from mass fractions: n_i = w_i / M_i, x_i = n_i / Σ n_j.
+
+    fractions : mass fractions w_i [-] (normalised here);  molar_masses : M_i [kg/mol]
+
+    Worked example, 50 % w/w ethanol in water (M 46.07 and 18.02 g/mol):
+
+    >>> [round(x, 4) for x in mole_fractions_from_mass([0.5, 0.5], [0.04607, 0.01802])]
+    [0.2812, 0.7188]
+    """
+    _check_fractions(fractions)
+    return _normalise([f / m for f, m in zip(fractions, molar_masses, strict=True)])
+
+
+def _check_fractions(fractions: Sequence[float]) -> None:
+    if not fractions:
+        raise ValueError("no components")
+    for value in fractions:
+        if not (math.isfinite(value) and 0.0 <= value <= 1.0):
+            raise ValueError(f"fractions must lie in [0, 1], got {value!r}")
+    if sum(fractions) <= 0.0:
+        raise ValueError("fractions sum to zero")
+
+
+def _normalise(amounts: Sequence[float]) -> tuple[float, ...]:
+    total = sum(amounts)
+    return tuple(a / total for a in amounts)
+
+
+@lru_cache(maxsize=128)
+def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...]) -> Any:
+    from thermo.unifac import UNIFAC
+
+    chemgroups = [dict(g) for g in groups]
+    start = [1.0 / len(groups)] * len(groups)
+    return UNIFAC.from_subgroups(T=298.15, xs=start, chemgroups=chemgroups, version=0)
+
+
+def activity_coefficients_unifac(
+    temperature: float,
+    mole_fractions: Sequence[float],
+    groups: Sequence[Sequence[tuple[int, int]]],
+) -> tuple[float, ...]:
+    """Liquid-phase activity coefficients γ_i by original UNIFAC.
+
+    temperature [K];  mole_fractions x_i [-];  groups : per component, its
+    (subgroup id, count) pairs in the original UNIFAC table (as `Substance.unifac_groups`).
+    Returns γ_i [-].
+
+    Worked example, ethanol–water at x_EtOH = 0.1 and 25 °C (ethanol CH3 + CH2 + OH,
+    water H2O; group counts from the UNIFAC tables). Ethanol's vapour is 3.4 times
+    what ideal Raoult's law would give:
+
+    >>> [round(g, 2) for g in activity_coefficients_unifac(
+    ...     298.15, [0.1, 0.9], [((1, 1), (2, 1), (14, 1)), ((16, 1),)])]
+    [3.43, 1.04]
+
+    Reference: Fredenslund, Jones & Prausnitz, AIChE J. 21 (1975) 1086; parameters as
+    shipped by `thermo` (original UNIFAC subgroups and interaction table).
+    """
+    key = tuple(tuple(tuple(pair) for pair in g) for g in groups)
+    model = _unifac(key)
+    return tuple(float(g) for g in model.to_T_xs(temperature, list(mole_fractions)).gammas())
+
+
+def activity_model(cas: Sequence[str]) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
+    """γ(T, x) for a fixed list of substances: UNIFAC, or γ = 1 for a single component.
+
+    The UNIFAC object is built once, so the returned function is cheap to call in a loop.
+
+    >>> gamma = activity_model(["ethanol", "water"])
+    >>> [round(g, 2) for g in gamma(298.15, [0.1, 0.9])]
+    [3.43, 1.04]
+    """
+    substances = [substance(c) for c in cas]
+    if len(substances) == 1:
+        return lambda temperature, x: (1.0,)
+    for s in substances:
+        if not s.unifac_groups:
+            raise SubstanceDataError(s.name, "no UNIFAC group assignment in the thermo tables")
+    model = _unifac(tuple(s.unifac_groups for s in substances))
+
+    def gammas(temperature: float, x: Sequence[float]) -> tuple[float, ...]:
+        return tuple(float(g) for g in model.to_T_xs(temperature, list(x)).gammas())
+
+    return gammas
+
+
+def partial_pressures(
+    cas: Sequence[str], mole_fractions: Sequence[float], temperature: float
+) -> tuple[float, ...]:
+    """Modified Raoult's law over a liquid: p_i = x_i · γ_i · P_sat,i(T) [Pa].
+
+    Worked example, pure isopropanol at 25 °C (Wagner equation, McGarry coefficients):
+
+    >>> round(partial_pressures(["isopropanol"], [1.0], 298.15)[0], -1)
+    5780.0
+    """
+    gammas = activity_model(cas)(temperature, mole_fractions)
+    return tuple(
+        x * g * vapour_pressure(c, temperature)
+        for c, x, g in zip(cas, mole_fractions, gammas, strict=True)
+    )
+
+
+def liaw_sum(
+    mole_fractions: Sequence[float],
+    activity_coefficients: Sequence[float],
+    vapour_pressures: Sequence[float],
+    vapour_pressures_at_flash_point: Sequence[float],
+) -> float:
+    """Liaw's flash-point sum over the flammable components of a liquid.
+
+        Σ x_i · γ_i · P_sat,i(T) / P_sat,i(T_fp,i)
+
+    The mixture is at its flash point where the sum is 1: each flammable vapour
+    contributes in proportion to its own partial pressure at its own flash point
+    (Le Chatelier's rule applied at the lower limit).
+
+    All arguments for the flammable components only; pressures [Pa]. Returns [-].
+
+    Worked example, pure liquid at its own flash point (by construction):
+
+    >>> liaw_sum([1.0], [1.0], [4400.0], [4400.0])
+    1.0
+
+    Reference: Liaw, Lee, Tang, Hsu & Liu, J. Loss Prev. Process Ind. 15 (2002) 429-438.
+    """
+    return sum(
+        x * g * p / p_fp
+        for x, g, p, p_fp in zip(
+            mole_fractions,
+            activity_coefficients,
+            vapour_pressures,
+            vapour_pressures_at_flash_point,
+            strict=True,
+        )
+    )
+
+
+def bubble_point(
+    cas: Sequence[str], mole_fractions: Sequence[float], pressure: float = STANDARD_PRESSURE
+) -> float:
+    """Temperature [K] at which the liquid boils: Σ x_i·γ_i·P_sat,i(T) = P.
+
+    >>> round(bubble_point(["water"], [1.0]) - 273.15, 2)     # IAPWS-95: 99.97 °C
+    99.97
+    """
+    from scipy.optimize import brentq
+
+    volatile = [c for c in cas if substance(c).volatile]
+    if not volatile:
+        raise SubstanceDataError(", ".join(cas), "no volatile component")
+    low = max(_temperature_limits(c)[0] for c in volatile)
+    high = min(_temperature_limits(c)[1] for c in volatile)
+
+    def excess(temperature: float) -> float:
+        return sum(partial_pressures(cas, mole_fractions, temperature)) - pressure
+
+    if excess(high) < 0.0:
+        return high
+    return float(brentq(excess, low, high, xtol=1e-4))
+
+
+def mixture_flash_point(
+    cas: Sequence[str], mole_fractions: Sequence[float], pressure: float = STANDARD_PRESSURE
+) -> float | None:
+    """Closed-cup flash point of a liquid mixture [K] by Liaw et al. (2002).
+
+    Solves Σ_flammable x_i·γ_i(T)·P_sat,i(T)/P_sat,i(T_fp,i) = 1 for T, with UNIFAC
+    γ over the whole liquid (water included) and pure flash points from
+    FIRE_DATA_METHODS. Components with an LFL but no tabulated flash point are left
+    out of the sum (a flash point that is too high, on the unsafe side; the caller
+    notes them). Returns None when the liquid has no flammable component with a
+    flash point, or when its vapour stays below the lower limit up to the bubble point.
+
+    Worked example, 50 % v/v ethanol in water (x_EtOH = 0.236). The published closed-cup
+    value is 24 °C:
+
+    >>> round(mixture_flash_point(["ethanol", "water"], [0.2357, 0.7643]) - 273.15, 1)
+    25.0
+
+    Reference: Liaw, Lee, Tang, Hsu & Liu, J. Loss Prev. Process Ind. 15 (2002) 429-438.
+    """
+    from scipy.optimize import brentq
+
+    fuels = [
+        i
+        for i, c in enumerate(cas)
+        if substance(c).flash_point is not None and substance(c).volatile
+    ]
+    if not fuels or all(mole_fractions[i] <= 0.0 for i in fuels):
+        return None
+    gamma = activity_model(cas)
+    fuel_cas = [cas[i] for i in fuels]
+    at_flash = [vapour_pressure(c, _flash_point_of(c)) for c in fuel_cas]
+
+    def excess(temperature: float) -> float:
+        gammas = gamma(temperature, mole_fractions)
+        return (
+            liaw_sum(
+                [mole_fractions[i] for i in fuels],
+                [gammas[i] for i in fuels],
+                [vapour_pressure(c, temperature) for c in fuel_cas],
+                at_flash,
+            )
+            - 1.0
+        )
+
+    high = bubble_point(cas, mole_fractions, pressure)
+    if excess(high) < 0.0:
+        return None
+    volatile = [c for c in cas if substance(c).volatile]
+    low = max(_temperature_limits(c)[0] for c in volatile)
+    low = max(low, min(_flash_point_of(c) for c in fuel_cas) - 100.0)
+    if excess(low) > 0.0:
+        raise SubstanceDataError(
+            ", ".join(cas), "flash point below the range of the vapour-pressure correlations"
+        )
+    return float(brentq(excess, low, high, xtol=1e-4))
+
+
+def _flash_point_of(cas: str) -> float:
+    value = substance(cas).flash_point
+    assert value is not None
+    return value
+
+
+def lfl_le_chatelier(fuel_fractions: Sequence[float], lfls: Sequence[float]) -> float:
+    """Lower flammable limit of a fuel-vapour mixture by Le Chatelier's rule.
+
+        LFL_mix = 1 / Σ (y_i / LFL_i),   y_i normalised over the fuels
+
+    fuel_fractions : amounts of each flammable vapour (any common scale, normalised here)
+    lfls : pure-vapour LFL_i as mole fractions in air [-]. Returns LFL_mix [-].
+
+    Worked example, equal parts ethanol (3.1 %) and isopropanol (2.0 %), IEC 60079-20-1
+    values: 1 / (0.5/0.031 + 0.5/0.020) = 2.43 %
+
+    >>> round(lfl_le_chatelier([0.5, 0.5], [0.031, 0.020]), 4)
+    0.0243
+
+    Reference: Le Chatelier (1891); Coward & Jones, US Bureau of Mines Bulletin 503 (1952).
+    """
+    total = sum(fuel_fractions)
+    if total <= 0.0:
+        raise ValueError("no fuel in the mixture")
+    return 1.0 / sum(y / total / lfl for y, lfl in zip(fuel_fractions, lfls, strict=True))
+
+
+def fraction_of_lfl(vapour_fractions: Sequence[float], lfls: Sequence[float]) -> float:
+    """How far a gas is towards its lower limit: Σ y_i / LFL_i (Le Chatelier's index).
+
+    vapour_fractions : mole fractions y_i of each flammable vapour in the gas [-]
+    lfls : LFL_i [-]. Returns the fraction of the mixture's LFL [-]: 1 at the LFL.
+
+    Worked example, 0.5 % isopropanol in air (LFL 2.0 %, IEC 60079-20-1): a quarter of
+    the LFL, the usual process-safety margin.
+
+    >>> fraction_of_lfl([0.005], [0.020])
+    0.25
+
+    Reference: Le Chatelier (1891); the index form as in NFPA 69 (memory).
+    """
+    return sum(y / lfl for y, lfl in zip(vapour_fractions, lfls, strict=True))
+
+
+@dataclass(frozen=True)
+class PreparationAnalysis:
+    """A preparation's liquid and the vapour over it, at the film temperature."""
+
+    names: tuple[str, ...]  # common names as resolved
+    cas: tuple[str, ...]
+    mole_fractions: tuple[float, ...]  # liquid, normalised over the components kept
+    activity_coefficients: tuple[float, ...]  # UNIFAC at film_temperature_K
+    flammable: tuple[bool, ...]  # has an LFL in FIRE_DATA_METHODS (water: False)
+    flash_point_K: float | None  # mixture, Liaw et al. (2002)
+    lfl_fraction: float | None  # Le Chatelier over the saturated vapour's flammable part
+    saturated_vapour_fraction: float | None  # flammable vapour in saturated air, film T
+    film_temperature_K: float
+    methods: tuple[str, ...] = ()
+    notes: tuple[str, ...] = ()
+    molar_volumes: tuple[float, ...] = ()  # m³/mol of each pure liquid at the basis temperature
+    lfls: tuple[float | None, ...] = ()  # pure LFL_i [-]
+
+
+def analyse_preparation(
+    components: Sequence[tuple[str, float]],
+    basis: str,
+    film_temperature_K: float,
+    *,
+    pressure: float = STANDARD_PRESSURE,
+    basis_temperature_K: float = VOLUME_BASIS_TEMPERATURE,
+) -> PreparationAnalysis:
+    """Resolve a preparation's components and describe its liquid and vapour.
+
+    components : (common name or CAS number, fraction 0-1) as in the room file
+    basis : 'volume' or 'mass', what the fractions mean
+    film_temperature_K : temperature of the liquid film [K]
+
+    Fractions need not sum to 1 (non-volatile actives may be left out); mole
+    fractions are normalised over the components kept. A component with no
+    vapour-pressure correlation and no UNIFAC groups (a non-volatile active such as
+    chlorhexidine) is left out of the liquid and named in `notes`. A component with
+    no LFL in FIRE_DATA_METHODS is not counted as fuel, and `notes` say so.
+    Raises UnknownSubstance for a name that `chemicals` cannot resolve, and
+    SubstanceDataError when a volatile component has no UNIFAC groups or a kept
+    component has no liquid density (needed on either basis: the film's volume is
+    turned into moles with it).
+
+    Worked example, 70 % v/v isopropanol in water on skin at 32 °C:
+
+    >>> a = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
+    >>> round(a.flash_point_K - 273.15, 1), a.lfl_fraction, round(a.saturated_vapour_fraction, 3)
+    (20.9, 0.02, 0.048)
+    """
+    if basis not in ("volume", "mass"):
+        raise ValueError(f"basis must be 'volume' or 'mass', got {basis!r}")
+    found = [(substance(name), fraction) for name, fraction in components]
+    notes: list[str] = []
+    kept: list[tuple[Substance, float]] = []
+    for s, fraction in found:
+        if not s.volatile and not s.unifac_groups:
+            notes.append(
+                f"{s.name}: non-volatile and without UNIFAC groups; left out of the liquid"
+            )
+            continue
+        kept.append((s, fraction))
+    if not kept:
+        raise SubstanceDataError(
+            ", ".join(name for name, _ in components), "no component has liquid data"
+        )
+    substances = [s for s, _ in kept]
+    fractions = [f for _, f in kept]
+    cas = tuple(s.cas for s in substances)
+    molar_masses = [s.molar_mass for s in substances]
+    molar_volumes = tuple(liquid_molar_volume(c, basis_temperature_K) for c in cas)
+    if basis == "volume":
+        densities = [m / v for m, v in zip(molar_masses, molar_volumes, strict=True)]
+        x = mole_fractions_from_volume(fractions, molar_masses, densities)
+    else:
+        x = mole_fractions_from_mass(fractions, molar_masses)
+
+    gammas = activity_model(cas)(film_temperature_K, x)
+    flammable = tuple(s.flammable for s in substances)
+    for s in substances:
+        if not s.flammable:
+            if s.cas != "7732-18-5":
+                notes.append(f"{s.name}: no LFL in {' or '.join(FIRE_DATA_METHODS)}; not fuel")
+        elif s.flash_point is None:
+            notes.append(f"{s.name}: no tabulated flash point; left out of the flash-point sum")
+
+    flash_point = mixture_flash_point(cas, x, pressure) if any(flammable) else None
+    lfl = None
+    saturated = None
+    if any(flammable):
+        pressures = [
+            x_i * g * vapour_pressure(c, film_temperature_K)
+            for c, x_i, g in zip(cas, x, gammas, strict=True)
+        ]
+        fuel_pressures = [p for p, f in zip(pressures, flammable, strict=True) if f]
+        fuel_lfls = [s.lfl for s in substances if s.lfl is not None]
+        saturated = sum(fuel_pressures) / pressure
+        if saturated > 0.0:
+            lfl = lfl_le_chatelier(fuel_pressures, fuel_lfls)
+    methods = [
+        _UNIFAC_NAME if len(cas) > 1 else "single component: activity coefficient 1",
+        "mixture flash point: Liaw et al. (2002)",
+        "mixture LFL: Le Chatelier's rule over the saturated vapour",
+        f"composition by {basis}; pure-liquid densities at {basis_temperature_K - 273.15:g} °C",
+    ]
+    for s in substances:
+        methods.extend(s.methods)
+    return PreparationAnalysis(
+        names=tuple(s.name for s in substances),
+        cas=cas,
+        mole_fractions=x,
+        activity_coefficients=gammas,
+        flammable=flammable,
+        flash_point_K=flash_point,
+        lfl_fraction=lfl,
+        saturated_vapour_fraction=saturated,
+        film_temperature_K=film_temperature_K,
+        methods=tuple(methods),
+        notes=tuple(notes),
+        molar_volumes=molar_volumes,
+        lfls=tuple(s.lfl for s in substances),
+    )
