@@ -19,7 +19,7 @@ from typing import Any
 
 from ignite.errors import Problem, RuleFileError, UnitError
 from ignite.source import load_yaml
-from ignite.units import parse_quantity
+from ignite.units import parse_any, parse_quantity
 
 FLAGS = ("published", "memory", "common practice", "assumption")
 SEVERITIES = ("high", "medium", "low", "note")
@@ -350,34 +350,16 @@ def _quantity(text: Any, dimension: str) -> tuple[float, str]:
     if dimension == "any":
         if isinstance(text, (int, float)) and not isinstance(text, bool):
             return float(text), "fraction"
-        for candidate in _ANY_DIMENSIONS:
-            try:
-                return parse_quantity(str(text), candidate), candidate
-            except UnitError:
-                continue
-        raise _FieldError(f"expected a value with a unit, got {text!r}")
+        try:
+            return parse_any(str(text))
+        except UnitError as exc:
+            raise _FieldError(str(exc)) from None
     try:
         return parse_quantity(str(text), dimension), dimension
     except UnitError as exc:
         raise _FieldError(str(exc)) from None
 
 
-_ANY_DIMENSIONS = (
-    "resistance",
-    "voltage",
-    "current",
-    "capacitance",
-    "energy",
-    "time",
-    "fraction",
-    "temperature",
-    "volume",
-    "flow",
-    "speed",
-    "length",
-    "area",
-    "diffusivity",
-)
 
 
 def _read_field(spec: Spec, raw: Any, source: str, flag: str) -> Any:

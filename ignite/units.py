@@ -328,3 +328,35 @@ def describe(value: object) -> str:
     if isinstance(value, dict):
         return "a mapping of keys"
     return type(value).__name__
+
+
+@functools.lru_cache(maxsize=512)
+def _dimension_of_unit(unit: str) -> str | None:
+    """The first dimension in DIMENSIONS whose dimensionality the unit has, or None."""
+    try:
+        dimensionality = registry().Quantity(1.0, unit).dimensionality
+    except Exception:  # pint raises many kinds for text it cannot read
+        return None
+    for dimension in DIMENSIONS:
+        if _dimensionality(dimension) == dimensionality:
+            return dimension
+    return None
+
+
+def parse_any(text: str) -> tuple[float, str]:
+    """Read ``"<number> <unit>"`` of whatever dimension its unit has: (SI value, dimension).
+
+    For rule files, whose parameters may be of any dimension. Raises `UnitError`.
+
+    >>> parse_any("150 pF")
+    (1.5e-10, 'capacitance')
+    >>> parse_any("25 %")
+    (0.25, 'fraction')
+    """
+    split = _split(str(text))
+    if split is None or not split[1]:
+        raise UnitError(f"expected a value with a unit, got {describe(text)}")
+    dimension = _dimension_of_unit(_normalise_unit(split[1]))
+    if dimension is None:
+        raise UnitError(f"expected a value with a known unit, got {describe(text)}")
+    return parse_quantity(text, dimension), dimension

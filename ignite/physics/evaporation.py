@@ -35,7 +35,7 @@ from ignite.physics.vapour import (
     STANDARD_PRESSURE,
     PreparationAnalysis,
     SubstanceDataError,
-    activity_model,
+    activity_model_at,
     fraction_of_lfl,
     substance,
     vapour_pressure,
@@ -438,7 +438,7 @@ class _FilmModel:
         self.pressure = pressure
         self.pocket_volume = pocket_volume
         self.pocket_exchange = pocket_exchange
-        self.gamma = activity_model(self.cas)
+        self.gamma = activity_model_at(tuple(self.cas), film_temperature)
         self.molar_masses = [substance(c).molar_mass for c in self.cas]
         self.psat = [vapour_pressure(c, film_temperature) for c in self.cas]
         self.volatile = [p > 0.0 for p in self.psat]
@@ -753,7 +753,7 @@ def simulate_prep(
     >>> round(out.open_air_drying_time_s), round(out.pocket_peak_fraction_of_lfl, 2)
     (460, 0.82)
     >>> round(out.safe_draping_after_s)
-    425
+    424
     """
     missing = [key for key in ASSUMPTION_KEYS if key not in assumptions]
     if missing:
