@@ -360,8 +360,6 @@ def _quantity(text: Any, dimension: str) -> tuple[float, str]:
         raise _FieldError(str(exc)) from None
 
 
-
-
 def _read_field(spec: Spec, raw: Any, source: str, flag: str) -> Any:
     if spec.type == "quantity":
         if isinstance(raw, dict):
