@@ -463,7 +463,13 @@ def _case(
     ox = case.oxygen
     pocket = case.drape_pocket
     notes: list[str] = []
-    if ox.delivery in OPEN_DELIVERY:
+    near_airway = _near_airway(case.site, book)
+    if ox.delivery in OPEN_DELIVERY and not near_airway:
+        notes.append(
+            f"Open {ox.delivery} delivery at the face is taken not to reach the drape pocket at a "
+            f"{case.site} site (rules/sites.yaml); the site is at room air."
+        )
+    if ox.delivery in OPEN_DELIVERY and near_airway:
         c_ss = oxygen.pocket_steady_state(
             ox.flow, ox.fraction, ox.nitrous_oxide_flow, pocket.exchange, ambient
         )
@@ -552,7 +558,7 @@ def _case(
             or outcome.flammable_left_at_activation_fraction > assumptions.get("dry_fraction", 0.01)
         )
 
-    head_neck_open = ox.delivery in OPEN_DELIVERY and case.site == "head-neck"
+    head_neck_open = ox.delivery in OPEN_DELIVERY and near_airway
     triad = Triad(
         oxidant=at_activation > enriched or head_neck_open,
         fuel=fuel_at_activation or bool(sustaining),
@@ -595,6 +601,14 @@ def _case(
         film_curve=film_curve,
         notes=tuple(notes),
     )
+
+
+def _near_airway(site: str, book: Rulebook) -> bool:
+    """Whether open oxygen at the face reaches the drape pocket of this site (rules/sites.yaml)."""
+    entry = book.entries.get(site)
+    if entry is None or entry.kind != "sites":
+        return True  # an unknown site is treated as near the airway: the cautious side
+    return bool(entry.get("near_airway"))
 
 
 def _oxygen_curve(

@@ -83,6 +83,7 @@ SCHEMAS: dict[str, dict[str, Spec]] = {
         "energy": Spec("quantity", "energy"),
         "temperature": Spec("quantity", "temperature"),
     },
+    "sites": {"near_airway": Spec("bool", required=True)},
     "checks": {
         "reads": Spec("text", required=True),
         "test": Spec("choice", required=True, choices=TESTS),

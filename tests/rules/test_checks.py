@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import pytest
+
 
 def rules_of(results):  # type: ignore[no-untyped-def]
     return {f.rule for f in results.findings}
@@ -86,3 +88,58 @@ def test_findings_are_sorted_worst_first(room_data, assess_data):
     ranks = [f.severity for f in assess_data(room_data).findings]
     order = ["high", "medium", "low", "note"]
     assert ranks == sorted(ranks, key=order.index)
+
+
+def _case(site: str, delivery: str = "nasal-cannula", stop: str = "60 s") -> dict:
+    return {
+        "id": 1,
+        "procedure": "excision of a lesion",
+        "site": site,
+        "oxygen": {
+            "delivery": delivery,
+            "flow": "4 L/min" if delivery != "closed-airway" else "0 L/min",
+            "fraction": "100 %",
+            "nitrous_oxide_flow": "0 L/min",
+            "stop_before_activation": stop,
+        },
+        "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
+        "prep": "none",
+        "air_speed": "0.2 m/s",
+        "draping_after": "3 min",
+        "first_activation_after": "6 min",
+        "materials": ["nonwoven polypropylene"],
+        "ignition_sources": ["monopolar electrosurgery"],
+    }
+
+
+def test_cannula_at_a_head_neck_site_with_one_minute_stop_is_high(room_data, assess_data):
+    room_data["cases"] = [_case("head-neck")]
+    results = assess_data(room_data)
+    case = results.cases[0]
+    # well-mixed pocket: (4·1 + 10·0.209)/(4 + 10) = 0.435 while oxygen flows
+    assert case.oxidant_fraction == pytest.approx((4 * 1.0 + 10 * 0.209) / 14, rel=1e-6)
+    finding = next(f for f in results.findings if f.rule == "oxygen.enriched-at-activation")
+    assert finding.severity == "high"
+    # washout to 23.5 %: (30 L / 10 L/min)·ln((0.435 − 0.209)/(0.235 − 0.209)) = 6.49 min → 6.5 min
+    assert any("at least 6.5 min" in m for m in finding.mitigations)
+
+
+def test_longer_stop_clears_the_oxygen_finding(room_data, assess_data):
+    room_data["cases"] = [_case("head-neck", stop="7 min")]
+    rules = rules_of(assess_data(room_data))
+    assert "oxygen.enriched-at-activation" not in rules
+
+
+def test_closed_airway_gives_no_oxygen_finding(room_data, assess_data):
+    room_data["cases"] = [_case("head-neck", delivery="closed-airway", stop="0 s")]
+    results = assess_data(room_data)
+    assert results.cases[0].oxidant_fraction == pytest.approx(0.209)
+    assert not any(f.rule.startswith("oxygen.") for f in results.findings)
+
+
+def test_face_mask_does_not_feed_a_limb_pocket(room_data, assess_data):
+    room_data["cases"] = [_case("limb", delivery="face-mask", stop="0 s")]
+    results = assess_data(room_data)
+    assert results.cases[0].oxidant_fraction == pytest.approx(0.209)
+    assert any("does not reach" in n or "not to reach" in n for n in results.cases[0].notes)
+    assert not any(f.rule.startswith("oxygen.") for f in results.findings)
