@@ -74,7 +74,48 @@ MARKER_SIZE = 2.2  # half-width of a marker [pt]
 # --------------------------------------------------------------------------- fonts, styles
 
 
-def _register_fonts() -> None:
+def new_document(
+    buffer: Any,
+    pagesize: tuple[float, float],
+    *,
+    title: str,
+    author: str,
+    subject: str,
+    creator: str,
+    margin_top: float = MARGIN_TOP,
+    margin_bottom: float = MARGIN_BOTTOM,
+) -> BaseDocTemplate:
+    """A one-frame document in invariant mode (same input, same bytes)."""
+    doc = BaseDocTemplate(
+        buffer,
+        pagesize=pagesize,
+        leftMargin=MARGIN_SIDE,
+        rightMargin=MARGIN_SIDE,
+        topMargin=margin_top,
+        bottomMargin=margin_bottom,
+        title=title,
+        author=author,
+        subject=subject,
+        creator=creator,
+        invariant=1,
+    )
+    frame = Frame(
+        doc.leftMargin,
+        doc.bottomMargin,
+        doc.width,
+        doc.height,
+        id="body",
+        leftPadding=0,
+        rightPadding=0,
+        topPadding=0,
+        bottomPadding=0,
+    )
+    doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
+    return doc
+
+
+def register_fonts() -> None:
+    """Register the bundled DejaVu fonts once (embedded in every PDF the project writes)."""
     if FONT in pdfmetrics.getRegisteredFontNames():
         return
     pdfmetrics.registerFont(TTFont(FONT, str(FONT_DIR / "DejaVuSans.ttf")))
@@ -910,34 +951,17 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     size = PAPERS.get(paper.lower())
     if size is None:
         raise ValueError(f"paper must be one of {', '.join(sorted(PAPERS))}, got {paper!r}")
-    _register_fonts()
+    register_fonts()
     st = _styles()
     buffer = io.BytesIO()
-    doc = BaseDocTemplate(
+    doc = new_document(
         buffer,
-        pagesize=size,
-        leftMargin=MARGIN_SIDE,
-        rightMargin=MARGIN_SIDE,
-        topMargin=MARGIN_TOP,
-        bottomMargin=MARGIN_BOTTOM,
+        size,
         title=view.title,
         author=view.author,
         subject=view.subject,
         creator=f"ignite {view.footer.tool_version}",
-        invariant=1,
     )
-    frame = Frame(
-        doc.leftMargin,
-        doc.bottomMargin,
-        doc.width,
-        doc.height,
-        id="body",
-        leftPadding=0,
-        rightPadding=0,
-        topPadding=0,
-        bottomPadding=0,
-    )
-    doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
     width = doc.width
     story: list[Flowable] = []
     story += _header(view, width, st)

@@ -28,10 +28,9 @@ if TYPE_CHECKING:
 
     from ignite.audit import AuditReport, FindingKey, RegisterRow, RoomChange
 
-FONT_DIR = Path(__file__).resolve().parent.parent / "fonts"
-FONT = "IgniteSummarySans"
-BOLD = "IgniteSummarySans-Bold"
-MONO = "IgniteSummaryMono"
+FONT = "IgniteSans"  # registered by ignite.worksheet.pdf.register_fonts
+BOLD = "IgniteSans-Bold"
+MONO = "IgniteMono"
 
 CAUTION = (
     "The figures support, and never replace, local codes, the manufacturer's instructions and "
@@ -52,18 +51,6 @@ MARGIN_BOTTOM = 20 * MM
 
 
 # --------------------------------------------------------------------------- fonts, styles
-
-
-def _register_fonts() -> None:
-    from reportlab.pdfbase import pdfmetrics
-    from reportlab.pdfbase.ttfonts import TTFont
-
-    if FONT in pdfmetrics.getRegisteredFontNames():
-        return
-    pdfmetrics.registerFont(TTFont(FONT, str(FONT_DIR / "DejaVuSans.ttf")))
-    pdfmetrics.registerFont(TTFont(BOLD, str(FONT_DIR / "DejaVuSans-Bold.ttf")))
-    pdfmetrics.registerFont(TTFont(MONO, str(FONT_DIR / "DejaVuSansMono.ttf")))
-    pdfmetrics.registerFontFamily(FONT, normal=FONT, bold=BOLD, italic=FONT, boldItalic=BOLD)
 
 
 def _styles() -> dict[str, ParagraphStyle]:
@@ -173,38 +160,24 @@ def _amount(value: float | None, unit: str, limit: float | None = None) -> tuple
 def render_summary(report: AuditReport) -> bytes:
     """The summary of an audit as PDF bytes (A4 or letter, as `report.paper` says)."""
     from reportlab.lib.pagesizes import A4, letter
-    from reportlab.platypus import BaseDocTemplate, Frame, PageTemplate
 
-    _register_fonts()
+    from ignite.worksheet.pdf import new_document, register_fonts
+
+    register_fonts()
     st = _styles()
     size = letter if report.paper.lower() == "letter" else A4
     buffer = io.BytesIO()
     folder_name = Path(report.folder).name or report.folder
-    doc = BaseDocTemplate(
+    doc = new_document(
         buffer,
-        pagesize=size,
-        leftMargin=MARGIN_SIDE,
-        rightMargin=MARGIN_SIDE,
-        topMargin=MARGIN_TOP,
-        bottomMargin=MARGIN_BOTTOM,
+        size,
         title=f"Audit summary: {folder_name}",
         author="ignite",
         subject="Floor, static-ignition and fire findings of a folder of rooms",
         creator=f"ignite {report.tool_version}",
-        invariant=1,
+        margin_top=MARGIN_TOP,
+        margin_bottom=MARGIN_BOTTOM,
     )
-    frame = Frame(
-        doc.leftMargin,
-        doc.bottomMargin,
-        doc.width,
-        doc.height,
-        id="body",
-        leftPadding=0,
-        rightPadding=0,
-        topPadding=0,
-        bottomPadding=0,
-    )
-    doc.addPageTemplates([PageTemplate(id="page", frames=[frame])])
     width = doc.width
     story: list[Flowable] = []
     story += _opening(report, folder_name, width, st)
