@@ -287,6 +287,11 @@ def test_summary_lists_rooms_verdicts_worst_findings_and_cautions(
         assert "Rules SHA-256" in footer
     width, height = float(reader.pages[0].mediabox.width), float(reader.pages[0].mediabox.height)
     assert (round(width), round(height)) == (612, 792)  # US letter, 8.5 × 11 in (ANSI/ASME Y14.1)
+    for page in reader.pages:
+        for font in page["/Resources"]["/Font"].values():
+            descriptor = font.get_object().get("/FontDescriptor")
+            # FontFile2 = an embedded TrueType program (ISO 32000-1 Table 126, published)
+            assert descriptor is not None and "/FontFile2" in descriptor.get_object()
 
 
 def test_warnings_reach_the_register_and_the_summary(tmp_path: Path) -> None:

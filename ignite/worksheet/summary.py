@@ -200,6 +200,10 @@ def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
 
         def __init__(self, *args: Any, **kwargs: Any) -> None:
             kwargs["invariant"] = 1
+            # start every page in the embedded font, not reportlab's unembedded Helvetica
+            kwargs["initialFontName"] = FONT
+            kwargs["initialFontSize"] = 8.5
+            kwargs["initialLeading"] = 11
             super().__init__(*args, **kwargs)
             self._held: list[dict[str, Any]] = []
 
