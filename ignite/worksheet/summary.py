@@ -249,6 +249,7 @@ def _table(rows: list[list[Any]], widths: Sequence[float], header: bool = True) 
     from reportlab.platypus import Table, TableStyle
 
     style: list[tuple[Any, ...]] = [
+        ("FONTNAME", (0, 0), (-1, -1), FONT),
         ("VALIGN", (0, 0), (-1, -1), "TOP"),
         ("LEFTPADDING", (0, 0), (-1, -1), 3),
         ("RIGHTPADDING", (0, 0), (-1, -1), 3),
@@ -316,6 +317,7 @@ def _opening(
     caution.setStyle(
         TableStyle(
             [
+                ("FONTNAME", (0, 0), (-1, -1), FONT),
                 ("BOX", (0, 0), (-1, -1), 1.2, colors.black),
                 ("LEFTPADDING", (0, 0), (-1, -1), 6),
                 ("RIGHTPADDING", (0, 0), (-1, -1), 6),
@@ -553,7 +555,11 @@ def _changes(report: AuditReport, width: float, st: dict[str, ParagraphStyle]) -
             grid = Table([pair], colWidths=[half + 4, half + 4])
             grid.setStyle(
                 TableStyle(
-                    [("LEFTPADDING", (0, 0), (-1, -1), 0), ("VALIGN", (0, 0), (-1, -1), "TOP")]
+                    [
+                        ("FONTNAME", (0, 0), (-1, -1), FONT),
+                        ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                        ("VALIGN", (0, 0), (-1, -1), "TOP"),
+                    ]
                 )
             )
             out.append(KeepTogether([grid, Spacer(1, 4)]))
