@@ -388,14 +388,11 @@ def _open_book(rules_dir: str | None) -> Rulebook:
 
 
 def _prepare(book: Rulebook, digest: str) -> None:
-    from ignite.pipeline import rule_rows
-
     _WORKER.clear()
     if book.digest != digest:
         _WORKER["failure"] = "the rule files changed while the audit was starting; run it again"
         return
     _WORKER["book"] = book
-    _WORKER["rule_rows"] = rule_rows(book)
 
 
 def _sha256(data: bytes) -> str:
@@ -437,9 +434,9 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
         return outcome(ERROR, [f"{file}: {_WORKER['failure']}"])
     book: Rulebook = _WORKER["book"]
     try:
-        from ignite.pipeline import run_room
+        from ignite.pipeline import evaluate_room
 
-        results = run_room(Path(path), book)
+        room, results = evaluate_room(Path(path), book)
     except InputError as exc:
         return outcome(INVALID, [str(problem) for problem in exc.problems])
     except Exception as exc:
@@ -452,12 +449,12 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
         )
     try:
         from ignite.calculations import METHODS
-        from ignite.pipeline import worksheet_path
+        from ignite.pipeline import rule_rows, rules_in_use, worksheet_path
         from ignite.worksheet import render_worksheet
 
         pdf = render_worksheet(
             results,
-            _WORKER["rule_rows"],
+            rule_rows(book, rules_in_use(book, room)),
             METHODS,
             data.decode("utf-8"),
             paper="letter" if paper.lower() == "letter" else "A4",

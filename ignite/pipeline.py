@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ignite.model import Vocabulary
+from ignite.model import Room, Vocabulary
 from ignite.results import Results, RuleRow
 from ignite.rulebook import Rulebook, load_rulebook
 
@@ -26,22 +26,65 @@ def vocabulary(book: Rulebook) -> Vocabulary:
     )
 
 
-def run_room(path: Path, book: Rulebook) -> Results:
+def evaluate_room(path: Path, book: Rulebook) -> tuple[Room, Results]:
     """Load, compute and evaluate one room; raises InputError for a bad room file."""
     from ignite.calculations import compute
     from ignite.evaluate import evaluate
     from ignite.load import load_room
 
     room = load_room(path, vocabulary(book))
-    return evaluate(book, room, compute(room, book))
+    return room, evaluate(book, room, compute(room, book))
 
 
-def rule_rows(book: Rulebook) -> list[RuleRow]:
-    """Every entry of the rules in force, as `ignite rules` and the appendix print it."""
+def run_room(path: Path, book: Rulebook) -> Results:
+    """The evaluated Results of one room file (see `evaluate_room`)."""
+    return evaluate_room(path, book)[1]
+
+
+def rules_in_use(book: Rulebook, room: Room) -> set[str]:
+    """Ids of the entries that bear on this room: every check and parameter, the window in
+    force, the humidity table and body impedance, and the footwear classes, fuels,
+    materials, ignition sources and sites the room names."""
+    from ignite.calculations import fuel_for, saturation_curve_for
+
+    used = {e.id for e in book.of_kind("checks")}
+    used |= {
+        e.id
+        for e in book.of_kind("parameters")
+        if not e.id.startswith("prep.") or room.preparations
+    }
+    used |= {
+        room.floor.criteria,
+        "body.impedance",
+        saturation_curve_for(room.floor.finish, book).id,
+    }
+    used |= {p.footwear.cls for p in room.people if p.footwear.cls}
+    used |= {"static-person"} if room.people else set()
+    used |= {"static-trolley"} if room.trolleys else set()
+    used |= {"brush-discharge"} if room.materials or any(c.materials for c in room.cases) else set()
+    for prep in room.preparations:
+        for name, _ in prep.components:
+            fuel = fuel_for(name, None, book)
+            if fuel is not None:
+                used.add(fuel.id)
+    by_name = {**book.names_of("materials"), **book.names_of("ignition-sources")}
+    names = list(room.materials)
+    for case in room.cases:
+        names += [*case.materials, *case.ignition_sources]
+        used.add(case.site)
+    used |= {by_name[n.lower()].id for n in names if n.lower() in by_name}
+    return {entry_id for entry_id in used if entry_id in book.entries}
+
+
+def rule_rows(book: Rulebook, only: set[str] | None = None) -> list[RuleRow]:
+    """Entries of the rules in force (all, or those in `only`), as `ignite rules` and the
+    worksheet's appendix print them."""
     from ignite.rulebook import describe
 
     rows = []
     for entry in book.entries.values():
+        if only is not None and entry.id not in only:
+            continue
         threshold = describe(entry, book.entries)
         rows.append(RuleRow(entry.id, entry.kind, entry.title, threshold, entry.source, entry.flag))
     return rows
@@ -65,14 +108,14 @@ def write_room_worksheet(
     from ignite.errors import OutputExistsError
     from ignite.worksheet import render_worksheet, write_worksheet
 
-    results = run_room(path, book)
+    room, results = evaluate_room(path, book)
     target = worksheet_path(results, output)
     if target.exists() and not force:
         raise OutputExistsError(target)
     text = Path(path).read_bytes().decode("utf-8")
     data = render_worksheet(
         results,
-        rule_rows(book),
+        rule_rows(book, rules_in_use(book, room)),
         METHODS,
         text,
         paper="letter" if paper.lower() == "letter" else "A4",

@@ -329,14 +329,14 @@ def test_an_internal_error_is_listed_and_the_rest_carry_on(
 ) -> None:
     import ignite.pipeline
 
-    real = ignite.pipeline.run_room
+    real = ignite.pipeline.evaluate_room
 
     def failing(path: Path, book: Any) -> Any:
         if path.name == "t1.yaml":
             raise ZeroDivisionError("simulated")
         return real(path, book)
 
-    monkeypatch.setattr(ignite.pipeline, "run_room", failing)
+    monkeypatch.setattr(ignite.pipeline, "evaluate_room", failing)
     out = tmp_path / "out"
     result = audit(site, "-o", out, "--jobs", "1")
     assert result.exit_code == 3

@@ -159,3 +159,14 @@ def test_new_writes_a_template_that_loads_and_refuses_to_overwrite(tmp_path, boo
 def test_samples_are_valid_yaml():
     for path in (ROOT / "sample_rooms").glob("*.yaml"):
         assert isinstance(yaml.safe_load(path.read_text(encoding="utf-8")), dict)
+
+
+def test_worksheet_appendix_lists_the_rules_this_room_uses(room_data, write_room, tmp_path):
+    from pypdf import PdfReader
+
+    out = tmp_path / "sheet.pdf"
+    assert run("assess", str(write_room(room_data)), "-o", str(out)).exit_code == 0
+    text = "".join(page.extract_text() for page in PdfReader(out).pages)
+    assert "medical-location" in text and "antistatic" in text  # the window and footwear in use
+    assert "conductive-historical" not in text  # a window the room does not use
+    assert "floor.reading-below-window" in text  # every check

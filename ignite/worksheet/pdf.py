@@ -594,7 +594,10 @@ def _appendix(
         PageBreak(),
         _p("Appendix A  Rules evaluated", st["h2"]),
         _p(
-            "Every rule in force for this run, with its threshold, source and provenance flag.",
+            "Every check and parameter in force, and the windows, tables, footwear classes, fuels, "
+            "materials, ignition sources and sites this room uses, each with its threshold, source "
+            "and provenance flag. `ignite rules` lists the rest; the rules SHA-256 in the footer "
+            "covers them all.",
             st["small"],
         ),
         _grid(view.rules, width, st),
