@@ -366,9 +366,15 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
                     f"The floor alone ({format_si(floor_max, 'Ω')} at its highest) is too resistive to keep "
                     f"{charge.label} below {what}: restore the floor."
                 )
+            classes = [
+                e.id
+                for e in sorted(scope.book.of_kind("footwear"), key=lambda e: e.get("resistance"))
+                if e.get("resistance") <= r
+            ]
+            fits = f" Footwear classes that meet it: {', '.join(classes)}." if classes else ""
             return (
                 f"Footwear of at most {format_si(r, 'Ω')} through the soles (with the floor's highest reading) "
-                f"keeps {charge.label} below {what}."
+                f"keeps {charge.label} below {what}.{fits}"
             )
         r_total = electrostatics.max_leak_resistance(v_limit, gen)
         path = r_total - floor_max
@@ -392,12 +398,15 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
         ),
     }
     if v_mie is not None:
-        limit = min(v_mie, charge.saturation_voltage_V)
         context["rh_advice_mie"] = _min_rh_text(scope, v_mie)
+        # aim for no spark at all; say what merely keeps the spark below the MIE as well
         context["leak_mitigation_mie"] = leak_text(
-            max(limit, no_spark) if v_mie > no_spark else no_spark,
-            f"a spark of {format_si(mie, 'J')}" if v_mie > no_spark else "the no-spark voltage",
+            no_spark, f"the no-spark voltage ({format_si(no_spark, 'V')})"
         )
+        if v_mie > no_spark:
+            context["leak_mitigation_mie"] += " " + leak_text(
+                v_mie, f"a spark of {format_si(mie, 'J')} (the site MIE)"
+            )
     if scope.window is not None and scope.window.has("walking_voltage_high"):
         context["leak_mitigation_esd"] = leak_text(
             scope.window.get("walking_voltage_high"), "the ESD walking-voltage limit"
