@@ -403,9 +403,11 @@ def _charge_context(scope: Scope, charge: ChargeResult) -> dict[str, Any]:
         context["leak_mitigation_mie"] = leak_text(
             no_spark, f"the no-spark voltage ({format_si(no_spark, 'V')})"
         )
-        if v_mie > no_spark:
-            context["leak_mitigation_mie"] += " " + leak_text(
-                v_mie, f"a spark of {format_si(mie, 'J')} (the site MIE)"
+        r_mie = electrostatics.max_leak_resistance(v_mie, gen) - floor_max
+        if v_mie > no_spark and r_mie > 0:
+            context["leak_mitigation_mie"] += (
+                f" (Up to {format_si(r_mie, 'Ω')} would keep the spark below the site MIE, "
+                f"{format_si(mie, 'J')}, without preventing it.)"
             )
     if scope.window is not None and scope.window.has("walking_voltage_high"):
         context["leak_mitigation_esd"] = leak_text(
