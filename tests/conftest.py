@@ -3,6 +3,8 @@
 from __future__ import annotations
 
 import copy
+import os
+import tempfile
 from collections.abc import Callable
 from pathlib import Path
 from typing import Any
@@ -12,6 +14,10 @@ import yaml
 
 from ignite.pipeline import open_rulebook, vocabulary
 from ignite.rulebook import Rulebook
+
+# Keep the substance cache of the test session apart from the developer's own
+# (set at import, before collection, so the doctests in ignite/ use it too).
+os.environ.setdefault("IGNITE_CACHE_DIR", tempfile.mkdtemp(prefix="ignite-test-cache-"))
 
 ROOT = Path(__file__).resolve().parent.parent
 SAMPLES = sorted((ROOT / "sample_rooms").glob("*.yaml"))

@@ -19,7 +19,9 @@ by a named method:
 
 Mole fractions are [-], temperatures [K], pressures [Pa], molar masses [kg/mol],
 densities [kg/m³], molar volumes [m³/mol]. `chemicals` and `thermo` load slowly, so
-they are imported inside the functions that use them.
+they are imported inside the functions that use them, and what `substance` resolves and
+the `thermo` objects built for it are kept between runs by `ignite.physics._cache`
+(identical results, a fraction of the start-up time).
 """
 
 from __future__ import annotations
@@ -29,6 +31,8 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 from typing import Any
+
+from ignite.physics import _cache
 
 __all__ = [
     "DENSITY_METHODS",
@@ -154,6 +158,16 @@ def substance(name: str) -> Substance:
     text = name.strip()
     if not text:
         raise UnknownSubstance(name)
+    kept = _cache.load("substance", text, lambda value: isinstance(value, Substance))
+    if kept is not None:
+        return kept
+    found = _resolve(name, text)
+    _cache.store("substance", text, found)
+    return found
+
+
+def _resolve(name: str, text: str) -> Substance:
+    """`substance` without the cache: look the text up and gather the data."""
     from chemicals import CAS_from_any
     from chemicals.identifiers import search_chemical
     from thermo.unifac import UNIFAC_group_assignment_DDBST
@@ -241,17 +255,42 @@ def _fire_data(cas: str) -> dict[str, tuple[float | None, str | None]]:
 
 @lru_cache(maxsize=256)
 def _vapour_pressure_model(cas: str) -> Any:
-    from thermo import VaporPressure
+    def build() -> Any:
+        from thermo import VaporPressure
 
-    return VaporPressure(CASRN=cas)
+        return VaporPressure(CASRN=cas)
+
+    return _cached_model("vapour-pressure", cas, "VaporPressure", build)
 
 
 @lru_cache(maxsize=256)
 def _liquid_volume_model(cas: str) -> Any:
-    from chemicals import MW
-    from thermo import VolumeLiquid
+    def build() -> Any:
+        from chemicals import MW
+        from thermo import VolumeLiquid
 
-    return VolumeLiquid(CASRN=cas, MW=MW(cas))
+        return VolumeLiquid(CASRN=cas, MW=MW(cas))
+
+    return _cached_model("liquid-volume", cas, "VolumeLiquid", build)
+
+
+def _cached_model(kind: str, key: Any, class_name: str, build: Callable[[], Any]) -> Any:
+    """A `thermo` object from the on-disk cache, or built and stored there before first use.
+
+    It is stored as built, before any calculation, so a cached object is in the same
+    state as a fresh one.
+    """
+    kept = _cache.load(kind, key, lambda value: _is_thermo(value, class_name))
+    if kept is not None:
+        return kept
+    built = build()
+    _cache.store(kind, key, built)
+    return built
+
+
+def _is_thermo(value: Any, class_name: str) -> bool:
+    kind = type(value)
+    return kind.__name__ == class_name and kind.__module__.split(".")[0] == "thermo"
 
 
 def _preferred_method(
@@ -365,11 +404,14 @@ def _normalise(amounts: Sequence[float]) -> tuple[float, ...]:
 
 @lru_cache(maxsize=128)
 def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...]) -> Any:
-    from thermo.unifac import UNIFAC
+    def build() -> Any:
+        from thermo.unifac import UNIFAC
 
-    chemgroups = [dict(g) for g in groups]
-    start = [1.0 / len(groups)] * len(groups)
-    return UNIFAC.from_subgroups(T=298.15, xs=start, chemgroups=chemgroups, version=0)
+        chemgroups = [dict(g) for g in groups]
+        start = [1.0 / len(groups)] * len(groups)
+        return UNIFAC.from_subgroups(T=298.15, xs=start, chemgroups=chemgroups, version=0)
+
+    return _cached_model("unifac", groups, "UNIFAC", build)
 
 
 def activity_coefficients_unifac(
