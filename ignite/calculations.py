@@ -8,7 +8,9 @@ from __future__ import annotations
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
+from functools import lru_cache
 from pathlib import Path
+from typing import Any
 
 from ignite import __version__
 from ignite.model import Case, Person, Preparation, Room, Trolley
@@ -397,6 +399,14 @@ def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[
 # --- preparations ----------------------------------------------------------------
 
 
+@lru_cache(maxsize=64)
+def analyse(components: tuple[tuple[str, float], ...], basis: str, film_temperature: float) -> Any:
+    """`vapour.analyse_preparation`, kept per process: an audit's rooms share their preparations."""
+    from ignite.physics import vapour
+
+    return vapour.analyse_preparation(components, basis, film_temperature)
+
+
 def prep_assumptions(book: Rulebook) -> dict[str, float]:
     return {
         e.id.removeprefix("prep."): float(e.get("value"))
@@ -410,13 +420,12 @@ def _preparations(
 ) -> tuple[tuple[PreparationResult, ...], dict[str, object]]:
     if not room.preparations:
         return (), {}
-    from ignite.physics import vapour
 
     film_t = prep_assumptions(book).get("skin_temperature_default", 305.15)
     results = []
     analyses: dict[str, object] = {}
     for prep in room.preparations:
-        analysis = vapour.analyse_preparation(prep.components, prep.basis, film_t)
+        analysis = analyse(prep.components, prep.basis, film_t)
         analyses[prep.id] = analysis
         components = tuple(
             ComponentResult(n, c, x, g, f)
@@ -521,10 +530,8 @@ def _case(
         analysis = analyses[case.prep.preparation]
         film_t = case.prep.skin_temperature or assumptions.get("skin_temperature_default", 305.15)
         if film_t != getattr(analysis, "film_temperature_K", film_t):
-            from ignite.physics import vapour
-
             prep = next(p for p in room.preparations if p.id == case.prep.preparation)
-            analysis = vapour.analyse_preparation(prep.components, prep.basis, film_t)
+            analysis = analyse(prep.components, prep.basis, film_t)
         outcome = evaporation.simulate_prep(
             analysis,  # type: ignore[arg-type]
             volume_m3=case.prep.volume,

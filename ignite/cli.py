@@ -7,6 +7,7 @@ file exists without --force), 3 an invalid room or rule file.
 from __future__ import annotations
 
 import json
+import os
 import sys
 from pathlib import Path
 from typing import TYPE_CHECKING, NoReturn
@@ -60,6 +61,16 @@ def _open_rules(rules_dir: Path | None) -> Rulebook:
         _exit(EXIT_INVALID)
 
 
+def _internal_error(path: Path, exc: Exception) -> None:
+    """An unexpected failure on one room: said plainly (IGNITE_DEBUG=1 shows the traceback)."""
+    if os.environ.get("IGNITE_DEBUG"):
+        raise exc
+    _say(
+        f"ignite: {path}: not assessed: internal error {type(exc).__name__}: {exc} "
+        "(please report it with the room file; IGNITE_DEBUG=1 shows the details)"
+    )
+
+
 def _reaches(severity: str, fail_on: str) -> bool:
     return fail_on != "never" and LEVELS.index(severity) <= LEVELS.index(fail_on)
 
@@ -94,6 +105,10 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
         except InputError as exc:
             _say(str(exc))
             _say(f"ignite: {path}: {len(exc.problems)} problem(s); room not assessed")
+            invalid = True
+            continue
+        except Exception as exc:
+            _internal_error(path, exc)
             invalid = True
             continue
         for warning in results.warnings:
@@ -156,6 +171,10 @@ def assess(
         except OutputExistsError as exc:
             _say(f"ignite: {exc}")
             exists = True
+            continue
+        except Exception as exc:
+            _internal_error(path, exc)
+            invalid = True
             continue
         for warning in results.warnings:
             _say(f"warning: {warning}")

@@ -690,6 +690,10 @@ class _Reader:
             component_path = join(path, name)
             if not name.strip():
                 self.problem(component_path, "expected a substance name or CAS number")
+            elif self.vocabulary is not None and self.vocabulary.substance_check is not None:
+                complaint = self.vocabulary.substance_check(name.strip())
+                if complaint:
+                    self.problem(component_path, complaint)
             components.append(
                 (
                     name.strip(),

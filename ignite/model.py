@@ -7,6 +7,7 @@ temperatures kelvin, times seconds, volumes m³, flows m³/s, resistances Ω.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 
 
@@ -140,3 +141,5 @@ class Vocabulary:
     footwear_classes: frozenset[str] = frozenset()
     materials: frozenset[str] = frozenset()  # every material name and alias, lower-cased
     ignition_sources: frozenset[str] = frozenset()  # every source name and alias, lower-cased
+    # given a substance name or CAS number: None when known, else what is wrong with it
+    substance_check: Callable[[str], str | None] | None = None

@@ -23,17 +23,40 @@ def vocabulary(book: Rulebook) -> Vocabulary:
         footwear_classes=frozenset(e.id for e in book.of_kind("footwear")),
         materials=frozenset(book.names_of("materials")),
         ignition_sources=frozenset(book.names_of("ignition-sources")),
+        substance_check=substance_problem,
     )
+
+
+def substance_problem(name: str) -> str | None:
+    """None when the `chemicals` tables know the substance; else a message for the room file."""
+    from ignite.physics import vapour
+
+    try:
+        vapour.substance(name)
+    except vapour.UnknownSubstance:
+        return (
+            f"unknown substance {name!r}: give a common name (isopropanol, ethanol, water) "
+            "or a CAS number (67-63-0)"
+        )
+    except vapour.SubstanceDataError as exc:
+        return f"substance {name!r} cannot be used: {exc}"
+    return None
 
 
 def evaluate_room(path: Path, book: Rulebook) -> tuple[Room, Results]:
     """Load, compute and evaluate one room; raises InputError for a bad room file."""
     from ignite.calculations import compute
+    from ignite.errors import InputError, Problem
     from ignite.evaluate import evaluate
     from ignite.load import load_room
+    from ignite.physics.vapour import SubstanceDataError
 
     room = load_room(path, vocabulary(book))
-    return room, evaluate(book, room, compute(room, book))
+    try:
+        results = compute(room, book)
+    except SubstanceDataError as exc:  # a substance the tables know, but without data we need
+        raise InputError([Problem(str(path), None, "preparations", str(exc))]) from None
+    return room, evaluate(book, room, results)
 
 
 def run_room(path: Path, book: Rulebook) -> Results:

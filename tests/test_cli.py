@@ -170,3 +170,20 @@ def test_worksheet_appendix_lists_the_rules_this_room_uses(room_data, write_room
     assert "medical-location" in text and "antistatic" in text  # the window and footwear in use
     assert "conductive-historical" not in text  # a window the room does not use
     assert "floor.reading-below-window" in text  # every check
+
+
+def test_unknown_substance_is_an_input_error_with_its_line(room_data, write_room):
+    room_data["preparations"] = [
+        {
+            "id": "x",
+            "label": "a made-up solvent",
+            "basis": "volume",
+            "components": {"unobtainium": "70 %", "water": "30 %"},
+        }
+    ]
+    path = write_room(room_data, "unknown-substance.yaml")
+    result = run("check", str(path))
+    assert result.exit_code == 3
+    assert "unknown-substance.yaml:" in result.stderr
+    assert "preparations[0].components.unobtainium" in result.stderr
+    assert "Traceback" not in result.stderr
