@@ -293,11 +293,34 @@ def _grid(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Fl
     """A table with a header row repeated on every page it runs over."""
     if not table.rows:
         return _p(table.empty_text, st["body"])
+    widths = _widths(table.widths, width)
     data = [[_p(h, st["cellbold"]) for h in table.headers]]
-    data += [[_p(cell, st["cell"]) for cell in row] for row in table.rows]
-    grid = LongTable(data, colWidths=_widths(table.widths, width), repeatRows=1, hAlign="LEFT")
-    grid.setStyle(TableStyle(_table_style()))
+    data += [
+        [_cell(cell, st["cell"], w) for cell, w in zip(row, widths, strict=True)]
+        for row in table.rows
+    ]
+    grid = LongTable(data, colWidths=widths, repeatRows=1, hAlign="LEFT")
+    cell = st["cell"]
+    grid.setStyle(
+        TableStyle(
+            [
+                *_table_style(),
+                ("FONTSIZE", (0, 1), (-1, -1), cell.fontSize),
+                ("LEADING", (0, 1), (-1, -1), cell.leading),
+            ]
+        )
+    )
     return grid
+
+
+def _cell(text: str, style: ParagraphStyle, width: float) -> Any:
+    """Short one-line text as a plain table string (laid out once); anything else wraps."""
+    if (
+        "\n" not in text
+        and pdfmetrics.stringWidth(text, style.fontName, style.fontSize) <= width - 7
+    ):
+        return text
+    return _p(text, style)
 
 
 def _pairs(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
