@@ -200,19 +200,42 @@ def _timestamp(iso: str | None) -> Any:
     return stamp
 
 
+class PagedCanvas(Canvas):
+    """Holds every page back until the end, so each page's furniture can say 'page x of y'.
+
+    Invariant mode; every page starts in the embedded font (reportlab's default,
+    Helvetica, would be listed in the page's resources without being embedded).
+    """
+
+    def __init__(self, *args: Any, **kwargs: Any) -> None:
+        kwargs["invariant"] = 1
+        kwargs["initialFontName"] = FONT
+        kwargs["initialFontSize"] = 8.5
+        kwargs["initialLeading"] = 11
+        super().__init__(*args, **kwargs)
+        self._held_pages: list[dict[str, Any]] = []
+
+    def showPage(self) -> None:  # reportlab's name
+        self._held_pages.append(dict(self.__dict__))
+        self._startPage()
+
+    def save(self) -> None:
+        total = len(self._held_pages)
+        for number, state in enumerate(self._held_pages, start=1):
+            self.__dict__.update(state)
+            self.page_furniture(number, total)
+            Canvas.showPage(self)
+        Canvas.save(self)
+
+    def page_furniture(self, number: int, total: int) -> None:
+        """Headers and footers of page `number` of `total`."""
+
+
 def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
     footer = view.footer
 
-    class WorksheetCanvas(Canvas):
-        """Holds every page back until the end, so each footer can say 'page x of y'."""
-
+    class WorksheetCanvas(PagedCanvas):
         def __init__(self, *args: Any, **kwargs: Any) -> None:
-            kwargs["invariant"] = 1
-            # Start every page in the embedded font: the default (Helvetica) would be
-            # listed in the page's resources without being embedded.
-            kwargs["initialFontName"] = FONT
-            kwargs["initialFontSize"] = 8.5
-            kwargs["initialLeading"] = 11
             super().__init__(*args, **kwargs)
             # The document's dates come from the room file, never from the clock or the
             # environment, so that the same input gives the same bytes.
@@ -222,21 +245,8 @@ def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
             # SOURCE_DATE_EPOCH for it): seed it again from the fixed stamp.
             self._doc.signature = hashlib.md5(b"a reportlab document", usedforsecurity=False)
             self._doc.signature.update(ascii(stamp.t).encode("ascii"))
-            self._held_pages: list[dict[str, Any]] = []
 
-        def showPage(self) -> None:
-            self._held_pages.append(dict(self.__dict__))
-            self._startPage()
-
-        def save(self) -> None:
-            total = len(self._held_pages)
-            for number, state in enumerate(self._held_pages, start=1):
-                self.__dict__.update(state)
-                self._furniture(number, total)
-                Canvas.showPage(self)
-            Canvas.save(self)
-
-        def _furniture(self, number: int, total: int) -> None:
+        def page_furniture(self, number: int, total: int) -> None:
             width, height = self._pagesize
             left, right = MARGIN_SIDE, width - MARGIN_SIDE
             self.saveState()

@@ -193,33 +193,11 @@ def render_summary(report: AuditReport) -> bytes:
 
 def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
     from reportlab.lib import colors
-    from reportlab.pdfgen.canvas import Canvas
 
-    class SummaryCanvas(Canvas):
-        """Holds every page back until the end, so each footer can say 'page x of y'."""
+    from ignite.worksheet.pdf import PagedCanvas
 
-        def __init__(self, *args: Any, **kwargs: Any) -> None:
-            kwargs["invariant"] = 1
-            # start every page in the embedded font, not reportlab's unembedded Helvetica
-            kwargs["initialFontName"] = FONT
-            kwargs["initialFontSize"] = 8.5
-            kwargs["initialLeading"] = 11
-            super().__init__(*args, **kwargs)
-            self._held: list[dict[str, Any]] = []
-
-        def showPage(self) -> None:  # reportlab's name
-            self._held.append(dict(self.__dict__))
-            self._startPage()
-
-        def save(self) -> None:
-            total = len(self._held)
-            for number, state in enumerate(self._held, start=1):
-                self.__dict__.update(state)
-                self._footer(number, total)
-                Canvas.showPage(self)
-            Canvas.save(self)
-
-        def _footer(self, number: int, total: int) -> None:
+    class SummaryCanvas(PagedCanvas):
+        def page_furniture(self, number: int, total: int) -> None:
             width, _ = self._pagesize
             left, right = MARGIN_SIDE, width - MARGIN_SIDE
             top = MARGIN_BOTTOM - 6
