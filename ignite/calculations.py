@@ -10,7 +10,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING
 
 from ignite import __version__
 from ignite.model import Case, Person, Preparation, Room, Trolley
@@ -28,6 +28,9 @@ from ignite.results import (
     Triad,
 )
 from ignite.rulebook import Entry, Rulebook
+
+if TYPE_CHECKING:
+    from ignite.physics.vapour import PreparationAnalysis
 
 METHODS: tuple[MethodRef, ...] = (
     MethodRef(
@@ -360,7 +363,7 @@ def fuel_for(component: str, cas: str | None, book: Rulebook) -> Entry | None:
     return None
 
 
-def room_fuels(room: Room, book: Rulebook, analyses: dict[str, object]) -> list[Entry]:
+def room_fuels(room: Room, book: Rulebook, analyses: dict[str, PreparationAnalysis]) -> list[Entry]:
     """Fuels of every preparation stocked in the room."""
     found: dict[str, Entry] = {}
     for prep in room.preparations:
@@ -369,8 +372,10 @@ def room_fuels(room: Room, book: Rulebook, analyses: dict[str, object]) -> list[
     return list(found.values())
 
 
-def _prep_fuels(prep: Preparation, book: Rulebook, analysis: object | None) -> list[Entry]:
-    cas_list: Sequence[str] = getattr(analysis, "cas", ()) or ()
+def _prep_fuels(
+    prep: Preparation, book: Rulebook, analysis: PreparationAnalysis | None
+) -> list[Entry]:
+    cas_list: Sequence[str] = analysis.cas if analysis is not None else ()
     fuels = []
     for index, (name, _) in enumerate(prep.components):
         cas = cas_list[index] if index < len(cas_list) else None
@@ -400,7 +405,9 @@ def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[
 
 
 @lru_cache(maxsize=64)
-def analyse(components: tuple[tuple[str, float], ...], basis: str, film_temperature: float) -> Any:
+def analyse(
+    components: tuple[tuple[str, float], ...], basis: str, film_temperature: float
+) -> PreparationAnalysis:
     """`vapour.analyse_preparation`, kept per process: an audit's rooms share their preparations."""
     from ignite.physics import vapour
 
@@ -417,13 +424,13 @@ def prep_assumptions(book: Rulebook) -> dict[str, float]:
 
 def _preparations(
     room: Room, book: Rulebook, warnings: list[str]
-) -> tuple[tuple[PreparationResult, ...], dict[str, object]]:
+) -> tuple[tuple[PreparationResult, ...], dict[str, PreparationAnalysis]]:
     if not room.preparations:
         return (), {}
 
     film_t = prep_assumptions(book).get("skin_temperature_default", 305.15)
     results = []
-    analyses: dict[str, object] = {}
+    analyses: dict[str, PreparationAnalysis] = {}
     for prep in room.preparations:
         analysis = analyse(prep.components, prep.basis, film_t)
         analyses[prep.id] = analysis
@@ -465,7 +472,11 @@ OPEN_DELIVERY = ("nasal-cannula", "face-mask")
 
 
 def _case(
-    case: Case, room: Room, book: Rulebook, analyses: dict[str, object], largest_spark: float | None
+    case: Case,
+    room: Room,
+    book: Rulebook,
+    analyses: dict[str, PreparationAnalysis],
+    largest_spark: float | None,
 ) -> CaseResult:
     ambient = book.value("oxygen.ambient")
     enriched = book.value("oxygen.enriched_limit")
@@ -529,11 +540,11 @@ def _case(
         assumptions = prep_assumptions(book)
         analysis = analyses[case.prep.preparation]
         film_t = case.prep.skin_temperature or assumptions.get("skin_temperature_default", 305.15)
-        if film_t != getattr(analysis, "film_temperature_K", film_t):
+        if film_t != analysis.film_temperature_K:
             prep = next(p for p in room.preparations if p.id == case.prep.preparation)
             analysis = analyse(prep.components, prep.basis, film_t)
         outcome = evaporation.simulate_prep(
-            analysis,  # type: ignore[arg-type]
+            analysis,
             volume_m3=case.prep.volume,
             area_m2=case.prep.area,
             air_speed_m_s=case.air_speed,
@@ -556,7 +567,7 @@ def _case(
         left_draping = outcome.flammable_left_at_draping_fraction
         left_activation = outcome.flammable_left_at_activation_fraction
         pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
-        prep_flammable = any(getattr(analysis, "flammable", ()))
+        prep_flammable = any(analysis.flammable)
         film_curve = outcome.film_curve
         notes.extend(outcome.notes)
         margin = assumptions.get("pocket_margin", 0.25)
