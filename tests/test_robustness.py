@@ -91,3 +91,47 @@ def test_variations_never_crash(tmp_path, room_changes, case_changes, readings, 
     result = CliRunner().invoke(main, ["check", str(path), "--format", "json"])
     assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
     assert result.exit_code in (0, 1, 3), result.output
+
+
+@settings(
+    max_examples=30, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture]
+)
+@given(
+    components=st.dictionaries(
+        st.sampled_from(
+            ["isopropanol", "ethanol", "water", "67-63-0", "acetone", "glycerol", "unobtainium", ""]
+        ),
+        st.sampled_from(["0 %", "1 %", "30 %", "62 %", "70 %", "99.9 %", "100 %", "70", "70 kg"]),
+        min_size=1,
+        max_size=3,
+    ),
+    basis=st.sampled_from(["volume", "mass", "weight"]),
+    volume=st.sampled_from(["0 mL", "0.01 mL", "10 mL", "500 mL"]),
+    area=st.sampled_from(["1 cm^2", "400 cm^2", "1 m^2"]),
+    hair=st.booleans(),
+    pooling=st.booleans(),
+    skin=st.sampled_from(["25 degC", "32 degC", "41 degC", "60 degC"]),
+)
+def test_preparation_variations_never_crash(
+    tmp_path, components, basis, volume, area, hair, pooling, skin
+):
+    data = copy.deepcopy(BASE_ROOM)
+    data["preparations"] = [
+        {"id": "p", "label": "test prep", "basis": basis, "components": components}
+    ]
+    case = copy.deepcopy(CASE)
+    case["prep"] = {
+        "preparation": "p",
+        "volume": volume,
+        "area": area,
+        "hair": hair,
+        "pooling": pooling,
+        "skin_temperature": skin,
+    }
+    data["cases"] = [case]
+    path = tmp_path / "room.yaml"
+    path.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
+    result = CliRunner().invoke(main, ["check", str(path), "--format", "json"])
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    assert result.exit_code in (0, 1, 3), result.output
+    assert "internal error" not in result.stderr
