@@ -1,3 +1,3 @@
-from ignite.cli import main
+from ignite.cli.main import main
 
 main()

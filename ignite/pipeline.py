@@ -4,14 +4,14 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ignite.model import Room, Vocabulary
+from ignite.room.model import Room, Vocabulary
 from ignite.results import Results, RuleRow
-from ignite.rulebook import Rulebook, load_rulebook
+from ignite.rules.rulebook import Rulebook, load_rulebook
 
 
 def open_rulebook(directory: Path | None = None) -> Rulebook:
     """The rules in force, validated against the results the checks may read."""
-    from ignite.evaluate import known_results
+    from ignite.findings.evaluate import known_results
 
     return load_rulebook(directory, known_results())
 
@@ -45,10 +45,10 @@ def substance_problem(name: str) -> str | None:
 
 def evaluate_room(path: Path, book: Rulebook) -> tuple[Room, Results]:
     """Load, compute and evaluate one room; raises InputError for a bad room file."""
-    from ignite.calculations import compute
+    from ignite.simulate.compute import compute
     from ignite.errors import InputError, Problem
-    from ignite.evaluate import evaluate
-    from ignite.load import load_room
+    from ignite.findings.evaluate import evaluate
+    from ignite.room.load import load_room
     from ignite.physics.vapour import SubstanceDataError
 
     room = load_room(path, vocabulary(book))
@@ -68,7 +68,7 @@ def rules_in_use(book: Rulebook, room: Room) -> set[str]:
     """Ids of the entries that bear on this room: every check and parameter, the window in
     force, the humidity table and body impedance, and the footwear classes, fuels,
     materials, ignition sources and sites the room names."""
-    from ignite.calculations import fuel_for, saturation_curve_for
+    from ignite.simulate.compute import fuel_for, saturation_curve_for
 
     used = {e.id for e in book.of_kind("checks")}
     used |= {
@@ -102,7 +102,7 @@ def rules_in_use(book: Rulebook, room: Room) -> set[str]:
 def rule_rows(book: Rulebook, only: set[str] | None = None) -> list[RuleRow]:
     """Entries of the rules in force (all, or those in `only`), as `ignite rules` and the
     worksheet's appendix print them."""
-    from ignite.rulebook import describe
+    from ignite.rules.rulebook import describe
 
     rows = []
     for entry in book.entries.values():
@@ -127,9 +127,9 @@ def write_room_worksheet(
     path: Path, book: Rulebook, output: Path | None, *, force: bool = False, paper: str = "a4"
 ) -> tuple[Results, Path]:
     """Assess one room and write its worksheet; raises InputError or OutputExistsError."""
-    from ignite.calculations import METHODS
+    from ignite.simulate.compute import METHODS
     from ignite.errors import OutputExistsError
-    from ignite.worksheet import render_worksheet, write_worksheet
+    from ignite.report.worksheet import render_worksheet, write_worksheet
 
     room, results = evaluate_room(path, book)
     target = worksheet_path(results, output)

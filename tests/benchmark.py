@@ -55,8 +55,8 @@ def main() -> None:
     )
 
     sys.path.insert(0, str(ROOT))
-    from ignite.calculations import compute
-    from ignite.load import load_room
+    from ignite.simulate.compute import compute
+    from ignite.room.load import load_room
     from ignite.pipeline import open_rulebook, vocabulary
 
     book = open_rulebook()

@@ -13,7 +13,7 @@ import pytest
 import yaml
 
 from ignite.pipeline import open_rulebook, vocabulary
-from ignite.rulebook import Rulebook
+from ignite.rules.rulebook import Rulebook
 
 # Keep the substance cache of the test session apart from the developer's own
 # (set at import, before collection, so the doctests in ignite/ use it too).

@@ -22,7 +22,7 @@ from click.testing import CliRunner
 from conftest import BASE_ROOM
 from pypdf import PdfReader
 
-from ignite.audit import (
+from ignite.audit.run import (
     ASSESSED,
     REGISTER_CSV,
     REGISTER_JSON,
@@ -34,7 +34,7 @@ from ignite.audit import (
     discover_rooms,
     read_register,
 )
-from ignite.cli import main
+from ignite.cli.main import main
 
 
 def room(room_id: str, readings: list[str], **room_fields: Any) -> dict[str, Any]:
@@ -389,7 +389,7 @@ def test_compare_pairs_rooms_by_id_then_by_file() -> None:
 
 
 def test_read_register_rejects_what_is_not_one(tmp_path: Path) -> None:
-    from ignite.audit import RegisterError
+    from ignite.audit.run import RegisterError
 
     path = tmp_path / "r.csv"
     path.write_bytes(b"a,b\n1,2\n")

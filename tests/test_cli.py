@@ -8,8 +8,8 @@ import yaml
 from click.testing import CliRunner
 from conftest import ROOT
 
-from ignite.cli import main
-from ignite.load import load_room_text
+from ignite.cli.main import main
+from ignite.room.load import load_room_text
 
 
 def run(*args: str):  # type: ignore[no-untyped-def]

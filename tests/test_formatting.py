@@ -9,7 +9,7 @@ import pytest
 from hypothesis import assume, given
 from hypothesis import strategies as st
 
-from ignite.formatting import (
+from ignite.wording.numbers import (
     MAX_SIG,
     MINUS,
     NEVER,

@@ -1,4 +1,4 @@
-"""Room file -> validated Room (ignite.load).
+"""Room file -> validated Room (ignite.room.load).
 
 The rooms in tests/rooms/ are invented. Expected SI values follow from the SI
 Brochure's unit definitions (BIPM, 9th ed., 2019: prefixes, litre, minute, hour,
@@ -19,9 +19,9 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from ignite.errors import InputError, Problem
-from ignite.load import load_room, load_room_text
-from ignite.model import Footwear, Room, Vocabulary
-from ignite.source import MAX_BYTES
+from ignite.room.load import load_room, load_room_text
+from ignite.room.model import Footwear, Room, Vocabulary
+from ignite.room.source import MAX_BYTES
 
 ROOMS = Path(__file__).parent / "rooms"
 FULL_PATH = ROOMS / "valid-full.yaml"

@@ -11,7 +11,7 @@ from conftest import BASE_ROOM
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from ignite.cli import main
+from ignite.cli.main import main
 
 CASE: dict[str, Any] = {
     "id": 1,

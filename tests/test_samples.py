@@ -8,7 +8,7 @@ import pytest
 from click.testing import CliRunner
 from conftest import SAMPLES
 
-from ignite.cli import main
+from ignite.cli.main import main
 
 CASE_KEYS = {
     "id",

@@ -1,11 +1,11 @@
-"""Safe YAML with a key-path -> line map (ignite.source)."""
+"""Safe YAML with a key-path -> line map (ignite.room.source)."""
 
 from __future__ import annotations
 
 import pytest
 
 from ignite.errors import InputError
-from ignite.source import MAX_BYTES, MAX_DEPTH, item, join, line_of, load_yaml, parse_yaml
+from ignite.room.source import MAX_BYTES, MAX_DEPTH, item, join, line_of, load_yaml, parse_yaml
 
 ROOM = """\
 format: 1

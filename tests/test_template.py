@@ -1,4 +1,4 @@
-"""The room-file template written by `ignite new` (ignite.template)."""
+"""The room-file template written by `ignite new` (ignite.room.template)."""
 
 from __future__ import annotations
 
@@ -6,10 +6,10 @@ import re
 
 import pytest
 
-from ignite.load import _CASE, _FLOOR, _OXYGEN, _PERSON, _PREP, _TOP, load_room_text
-from ignite.model import Vocabulary
-from ignite.source import load_yaml
-from ignite.template import TEMPLATE
+from ignite.room.load import _CASE, _FLOOR, _OXYGEN, _PERSON, _PREP, _TOP, load_room_text
+from ignite.room.model import Vocabulary
+from ignite.room.source import load_yaml
+from ignite.room.template import TEMPLATE
 
 
 def test_template_loads_cleanly() -> None:

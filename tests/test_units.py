@@ -1,4 +1,4 @@
-"""Quantity strings -> SI floats (ignite.units).
+"""Quantity strings -> SI floats (ignite.room.units).
 
 Expected values are the unit definitions of the SI Brochure (BIPM, 9th edition, 2019,
 Tables 2-8: prefixes, litre, minute, hour, degree Celsius) and NIST SP 811 (2008),
@@ -14,7 +14,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from ignite.errors import UnitError
-from ignite.units import DIMENSIONS, EXAMPLES, SI_UNITS, parse_quantity, registry, to_si
+from ignite.room.units import DIMENSIONS, EXAMPLES, SI_UNITS, parse_quantity, registry, to_si
 
 ACCEPTED = [
     # text, dimension, SI value

@@ -16,8 +16,8 @@ from pypdf import PdfReader
 
 from ignite.errors import OutputExistsError
 from ignite.results import SEVERITIES, Amount, Finding
-from ignite.worksheet import build_view, render_worksheet, write_worksheet
-from ignite.worksheet.model import SEVERITY_MARKS, SEVERITY_WORDS
+from ignite.report.worksheet import build_view, render_worksheet, write_worksheet
+from ignite.report.worksheet.model import SEVERITY_MARKS, SEVERITY_WORDS
 
 try:
     from tests import worksheet_fixtures as fx
@@ -238,7 +238,7 @@ def test_same_input_same_bytes(full_pdf: bytes) -> None:
 def test_bytes_do_not_depend_on_the_environment(full_pdf: bytes) -> None:
     code = (
         "import sys; sys.path[:0] = [sys.argv[1], sys.argv[2]];"
-        "import worksheet_fixtures as fx; from ignite.worksheet import render_worksheet;"
+        "import worksheet_fixtures as fx; from ignite.report.worksheet import render_worksheet;"
         "sys.stdout.buffer.write(render_worksheet(fx.full_results(), fx.RULES, fx.METHODS,"
         " fx.FULL_ROOM_FILE))"
     )
@@ -255,9 +255,9 @@ def test_bytes_do_not_depend_on_the_environment(full_pdf: bytes) -> None:
 def test_import_is_light_and_a_worksheet_is_quick() -> None:
     code = (
         "import sys, time; sys.path[:0] = [sys.argv[1], sys.argv[2]];"
-        "import ignite.worksheet; assert 'reportlab' not in sys.modules, 'reportlab imported';"
+        "import ignite.report.worksheet; assert 'reportlab' not in sys.modules, 'reportlab imported';"
         "import worksheet_fixtures as fx; t = time.perf_counter();"
-        "ignite.worksheet.render_worksheet(fx.full_results(), fx.RULES, fx.METHODS,"
+        "ignite.report.worksheet.render_worksheet(fx.full_results(), fx.RULES, fx.METHODS,"
         " fx.FULL_ROOM_FILE); print(time.perf_counter() - t)"
     )
     start = time.perf_counter()

@@ -15,7 +15,7 @@ import hashlib
 import itertools
 import math
 
-from ignite.formatting import format_duration, format_si
+from ignite.wording.numbers import format_duration, format_si
 from ignite.results import (
     Amount,
     CaseResult,

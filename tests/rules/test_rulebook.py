@@ -8,8 +8,8 @@ from pathlib import Path
 import pytest
 
 from ignite.errors import RuleFileError
-from ignite.evaluate import check_dimensions, known_results
-from ignite.rulebook import FLAGS, Sourced, default_rules_dir, load_rulebook
+from ignite.findings.evaluate import check_dimensions, known_results
+from ignite.rules.rulebook import FLAGS, Sourced, default_rules_dir, load_rulebook
 
 
 def test_every_value_has_a_source_and_a_flag(book):

@@ -236,7 +236,7 @@ def _value(field: Any) -> Any:
 
 
 def _fraction(field: Any) -> float:
-    from ignite.units import parse_quantity
+    from ignite.room.units import parse_quantity
 
     return parse_quantity(str(_value(field)), "fraction")
 
@@ -313,7 +313,7 @@ def test_names_are_unique_across_entries() -> None:
 
 
 def test_ignition_sources_follow_the_physics_guide() -> None:
-    from ignite.units import parse_quantity
+    from ignite.room.units import parse_quantity
 
     entries = _entries("ignition_sources.yaml")
     # Physics guide §7: electrosurgery, lasers, burrs and defibrillators are certain.

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import pytest
 
-from ignite.calculations import window_limits
+from ignite.simulate.compute import window_limits
 
 
 def test_medical_location_window(book):

@@ -13,11 +13,11 @@ from collections.abc import Callable, Iterator, Mapping
 from dataclasses import dataclass, field, replace
 from typing import Any
 
-from ignite.formatting import format_duration, format_si
-from ignite.model import Room
+from ignite.wording.numbers import format_duration, format_si
+from ignite.room.model import Room
 from ignite.physics import electrostatics
 from ignite.results import Amount, CaseResult, ChargeResult, Finding, Results, severity_rank
-from ignite.rulebook import Entry, Limit, Rulebook, limit_dimension
+from ignite.rules.rulebook import Entry, Limit, Rulebook, limit_dimension
 
 UNITS = {
     "resistance": "Ω",
@@ -344,7 +344,7 @@ def _min_rh_text(scope: Scope, voltage: float) -> str:
 
 
 def _saturation_points(scope: Scope) -> list[tuple[float, float]]:
-    from ignite.calculations import saturation_curve_for
+    from ignite.simulate.compute import saturation_curve_for
 
     return list(saturation_curve_for(scope.room.floor.finish, scope.book).get("points"))
 
@@ -444,7 +444,7 @@ def _limit_value(limit: Limit, scope: Scope) -> tuple[float | None, str, str]:
         if window is None or not window.has(limit.ref):
             return None, "", ""
         if limit.ref == "low":
-            from ignite.calculations import window_limits
+            from ignite.simulate.compute import window_limits
 
             low, _ = window_limits(window, scope.room.room.mains.voltage)
             sourced = window.sourced("low")

@@ -2,9 +2,9 @@
 
 `build_view` turns `Results` (plus the rules and methods appendix rows and the room
 file's text) into a `WorksheetView` of strings, small tables and chart specifications.
-All rounding happens here, through `ignite.formatting`: a value compared with a limit
+All rounding happens here, through `ignite.wording.numbers`: a value compared with a limit
 is printed with `format_against_limit`, so it never rounds across the limit. The
-renderer (`ignite.worksheet.pdf`) only lays these strings out.
+renderer (`ignite.report.worksheet.pdf`) only lays these strings out.
 
 Charts carry numbers (in the units their axes are labelled in) because they must be
 drawn; their axes, tick labels and line labels are decided here too.
@@ -16,7 +16,7 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from ignite.formatting import (
+from ignite.wording.numbers import (
     NO_VALUE,
     format_against_limit,
     format_duration,

@@ -15,7 +15,7 @@ from pathlib import Path
 
 from ignite.errors import OutputExistsError
 from ignite.results import MethodRef, Results, RuleRow
-from ignite.worksheet.model import WorksheetView, build_view
+from ignite.report.worksheet.model import WorksheetView, build_view
 
 __all__ = [
     "OutputExistsError",
@@ -35,7 +35,7 @@ def render_worksheet(
 ) -> bytes:
     """The worksheet for `results` as PDF bytes (A4 or "letter"); the same input gives the
     same bytes."""
-    from ignite.worksheet.pdf import render
+    from ignite.report.worksheet.pdf import render
 
     return render(build_view(results, rules, methods, input_text), paper=paper)
 

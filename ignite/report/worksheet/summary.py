@@ -18,7 +18,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 from xml.sax.saxutils import escape
 
-from ignite.formatting import NO_VALUE, format_against_limit, format_si
+from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 from ignite.results import SEVERITIES, severity_rank
 
 if TYPE_CHECKING:
@@ -26,9 +26,9 @@ if TYPE_CHECKING:
     from reportlab.lib.styles import ParagraphStyle
     from reportlab.platypus import Flowable
 
-    from ignite.audit import AuditReport, FindingKey, RegisterRow, RoomChange
+    from ignite.audit.run import AuditReport, FindingKey, RegisterRow, RoomChange
 
-FONT = "IgniteSans"  # registered by ignite.worksheet.pdf.register_fonts
+FONT = "IgniteSans"  # registered by ignite.report.worksheet.pdf.register_fonts
 BOLD = "IgniteSans-Bold"
 MONO = "IgniteMono"
 
@@ -161,7 +161,7 @@ def render_summary(report: AuditReport) -> bytes:
     """The summary of an audit as PDF bytes (A4 or letter, as `report.paper` says)."""
     from reportlab.lib.pagesizes import A4, letter
 
-    from ignite.worksheet.pdf import new_document, register_fonts
+    from ignite.report.worksheet.pdf import new_document, register_fonts
 
     register_fonts()
     st = _styles()
@@ -194,7 +194,7 @@ def render_summary(report: AuditReport) -> bytes:
 def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
     from reportlab.lib import colors
 
-    from ignite.worksheet.pdf import PagedCanvas
+    from ignite.report.worksheet.pdf import PagedCanvas
 
     class SummaryCanvas(PagedCanvas):
         def page_furniture(self, number: int, total: int) -> None:
@@ -252,7 +252,7 @@ def _opening(
     from reportlab.lib import colors
     from reportlab.platypus import Spacer, Table, TableStyle
 
-    from ignite.audit import ASSESSED, ERROR, INVALID
+    from ignite.audit.run import ASSESSED, ERROR, INVALID
 
     rows = report.rows
     assessed = [row for row in rows if row.status == ASSESSED or row.room_id]

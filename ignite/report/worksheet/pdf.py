@@ -48,12 +48,12 @@ from reportlab.platypus import (
     TableStyle,
 )
 
-from ignite.worksheet import model
+from ignite.report.worksheet import model
 
 FONT = "IgniteSans"
 BOLD = "IgniteSans-Bold"
 MONO = "IgniteMono"
-FONT_DIR = Path(__file__).resolve().parent.parent / "fonts"
+FONT_DIR = Path(__file__).resolve().parents[2] / "fonts"
 
 PAPERS = {"a4": A4, "letter": LETTER}
 

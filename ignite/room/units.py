@@ -3,7 +3,7 @@
 Room files and `rules/` hold values as strings with units (``"250 kΩ"``, ``"20 degC"``,
 ``"4 L/min"``); everything inside ignite is an SI float. This module is the only place
 that converts. It never touches pint's application-wide default registry, and it builds
-its own registry on first use so that ``import ignite.units`` stays cheap.
+its own registry on first use so that ``import ignite.room.units`` stays cheap.
 
 The number and the unit are split before pint sees them: pint refuses ``"21 degC"`` as
 one expression (an offset unit in a multiplication), and splitting also keeps pint's

@@ -1,6 +1,6 @@
 """`ignite audit`: a folder of room files in; a worksheet each, a register and a summary out.
 
-The work is done by `ignite.audit`; this module parses options, shows progress on
+The work is done by `ignite.audit.run`; this module parses options, shows progress on
 stderr and maps the outcome to the project's exit codes.
 """
 
@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING, NoReturn
 import click
 
 if TYPE_CHECKING:
-    from ignite.audit import AuditOutcome, RoomRun
+    from ignite.audit.run import AuditOutcome, RoomRun
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 EXIT_INTERRUPTED, EXIT_TERMINATED = 130, 143  # 128 + SIGINT, 128 + SIGTERM
@@ -144,7 +144,7 @@ def audit(
     force: bool,
     paper: str,
 ) -> None:
-    from ignite.audit import (
+    from ignite.audit.run import (
         RegisterError,
         discover_rooms,
         existing_audit_files,

@@ -18,8 +18,8 @@ from pathlib import Path
 from typing import Any
 
 from ignite.errors import Problem, RuleFileError, UnitError
-from ignite.source import load_yaml
-from ignite.units import parse_any, parse_quantity
+from ignite.room.source import load_yaml
+from ignite.room.units import parse_any, parse_quantity
 
 FLAGS = ("published", "memory", "common practice", "assumption")
 SEVERITIES = ("high", "medium", "low", "note")
@@ -176,11 +176,11 @@ class Rulebook:
 
 def default_rules_dir() -> Path:
     """rules/ beside the package in a checkout; the packaged copy in an installed wheel."""
-    here = Path(__file__).resolve().parent
-    checkout = here.parent / "rules"
+    package = Path(__file__).resolve().parents[1]
+    checkout = package.parent / "rules"
     if checkout.is_dir() and (checkout / "checks.yaml").exists():
         return checkout
-    return here / "_rules"
+    return package / "_rules"
 
 
 _cache: dict[Path, Rulebook] = {}

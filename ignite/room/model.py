@@ -1,7 +1,7 @@
 """The room file as validated data: frozen dataclasses holding SI floats.
 
 Every field here was parsed from a string with a unit and range-checked by
-`ignite.load`; nothing downstream converts units again. Percentages are fractions,
+`ignite.room.load`; nothing downstream converts units again. Percentages are fractions,
 temperatures kelvin, times seconds, volumes m³, flows m³/s, resistances Ω.
 """
 

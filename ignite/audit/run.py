@@ -41,7 +41,7 @@ from typing import Any
 
 from ignite.errors import IgniteError, InputError, OutputExistsError
 from ignite.results import SEVERITIES, Finding, Results, severity_rank
-from ignite.rulebook import Rulebook
+from ignite.rules.rulebook import Rulebook
 
 ROOM_SUFFIXES = (".yaml", ".yml")
 REGISTER_CSV = "audit-register.csv"
@@ -227,7 +227,7 @@ class RoomChange:
 
     def describe(self) -> str:
         """The change in one line, as the register's `change_since_previous` holds it."""
-        from ignite.formatting import format_si
+        from ignite.wording.numbers import format_si
 
         if self.kind == "new":
             return "new: not in the previous register"
@@ -448,9 +448,9 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
             ],
         )
     try:
-        from ignite.calculations import METHODS
+        from ignite.simulate.compute import METHODS
         from ignite.pipeline import rule_rows, rules_in_use, worksheet_path
-        from ignite.worksheet import render_worksheet
+        from ignite.report.worksheet import render_worksheet
 
         pdf = render_worksheet(
             results,
@@ -922,7 +922,7 @@ def register_json(report: AuditReport) -> bytes:
 
 def write_outputs(report: AuditReport, output: Path, *, force: bool) -> list[Path]:
     """Register CSV, register JSON, then the summary PDF; each whole or not at all."""
-    from ignite.worksheet.summary import render_summary
+    from ignite.report.worksheet.summary import render_summary
 
     written = []
     for name, data in (

@@ -17,7 +17,7 @@ import click
 from ignite import __version__
 
 if TYPE_CHECKING:
-    from ignite.rulebook import Rulebook
+    from ignite.rules.rulebook import Rulebook
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 LEVELS = ("high", "medium", "low", "note", "never")
@@ -94,7 +94,7 @@ def main() -> None:
 def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | None) -> None:
     from ignite.errors import InputError
     from ignite.pipeline import run_room
-    from ignite.textreport import render_text
+    from ignite.report.text import render_text
 
     book = _open_rules(rules_dir)
     invalid = reached = False
@@ -231,7 +231,7 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
 @click.argument("path", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def new(path: Path, force: bool) -> None:
-    from ignite.template import TEMPLATE
+    from ignite.room.template import TEMPLATE
 
     if path.exists() and not force:
         _say(f"ignite: {path} exists; use --force to overwrite it")
@@ -244,7 +244,7 @@ def new(path: Path, force: bool) -> None:
 
 
 def _register_audit() -> None:
-    from ignite.audit_cli import audit
+    from ignite.cli.audit import audit
 
     main.add_command(audit)
 

@@ -24,7 +24,7 @@ from pathlib import Path
 from typing import Any
 
 from ignite.errors import InputError, Problem, UnitError
-from ignite.model import (
+from ignite.room.model import (
     Case,
     DrapePocket,
     Environment,
@@ -40,8 +40,8 @@ from ignite.model import (
     Trolley,
     Vocabulary,
 )
-from ignite.source import MAX_BYTES, item, join, line_of, parse_yaml
-from ignite.units import describe, noun, parse_quantity
+from ignite.room.source import MAX_BYTES, item, join, line_of, parse_yaml
+from ignite.room.units import describe, noun, parse_quantity
 
 FORMAT = 1
 PURPOSES = ("pre-list", "recommissioning", "periodic-audit")

@@ -1,0 +1,1 @@
+"""Room and bound rules to `Results`: the orchestrators that feed the physics."""
