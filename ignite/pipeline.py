@@ -4,8 +4,8 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ignite.room.model import Room, Vocabulary
 from ignite.results import Results, RuleRow
+from ignite.room.model import Room, Vocabulary
 from ignite.rules.rulebook import Rulebook, load_rulebook
 
 
@@ -45,11 +45,11 @@ def substance_problem(name: str) -> str | None:
 
 def evaluate_room(path: Path, book: Rulebook) -> tuple[Room, Results]:
     """Load, compute and evaluate one room; raises InputError for a bad room file."""
-    from ignite.simulate.compute import compute
     from ignite.errors import InputError, Problem
     from ignite.findings.evaluate import evaluate
-    from ignite.room.load import load_room
     from ignite.physics.vapour import SubstanceDataError
+    from ignite.room.load import load_room
+    from ignite.simulate.compute import compute
 
     room = load_room(path, vocabulary(book))
     try:
@@ -127,9 +127,9 @@ def write_room_worksheet(
     path: Path, book: Rulebook, output: Path | None, *, force: bool = False, paper: str = "a4"
 ) -> tuple[Results, Path]:
     """Assess one room and write its worksheet; raises InputError or OutputExistsError."""
-    from ignite.simulate.compute import METHODS
     from ignite.errors import OutputExistsError
     from ignite.report.worksheet import render_worksheet, write_worksheet
+    from ignite.simulate.compute import METHODS
 
     room, results = evaluate_room(path, book)
     target = worksheet_path(results, output)

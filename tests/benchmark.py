@@ -55,9 +55,9 @@ def main() -> None:
     )
 
     sys.path.insert(0, str(ROOT))
-    from ignite.simulate.compute import compute
-    from ignite.room.load import load_room
     from ignite.pipeline import open_rulebook, vocabulary
+    from ignite.room.load import load_room
+    from ignite.simulate.compute import compute
 
     book = open_rulebook()
     room = load_room(list_room, vocabulary(book))

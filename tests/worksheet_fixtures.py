@@ -15,7 +15,6 @@ import hashlib
 import itertools
 import math
 
-from ignite.wording.numbers import format_duration, format_si
 from ignite.results import (
     Amount,
     CaseResult,
@@ -31,6 +30,7 @@ from ignite.results import (
     RuleRow,
     Triad,
 )
+from ignite.wording.numbers import format_duration, format_si
 
 GENERATION_CURRENT = 0.1e-6  # A
 NO_SPARK = 330.0  # V

@@ -448,9 +448,9 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
             ],
         )
     try:
-        from ignite.simulate.compute import METHODS
         from ignite.pipeline import rule_rows, rules_in_use, worksheet_path
         from ignite.report.worksheet import render_worksheet
+        from ignite.simulate.compute import METHODS
 
         pdf = render_worksheet(
             results,

@@ -2,8 +2,8 @@
 
 from __future__ import annotations
 
-from ignite.wording.numbers import format_against_limit, format_duration, format_si
 from ignite.results import ChargeResult, Finding, Results, severity_rank
+from ignite.wording.numbers import format_against_limit, format_duration, format_si
 
 CAUTION = (
     "Caution: these figures support, and never replace, local codes, the manufacturer's "

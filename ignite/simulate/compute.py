@@ -13,7 +13,6 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from ignite import __version__
-from ignite.room.model import Case, Person, Preparation, Room, Trolley
 from ignite.physics import electrostatics, floor, ignition, oxygen, shock
 from ignite.results import (
     CaseResult,
@@ -27,6 +26,7 @@ from ignite.results import (
     RoomInfo,
     Triad,
 )
+from ignite.room.model import Case, Person, Preparation, Room, Trolley
 from ignite.rules.rulebook import Entry, Rulebook
 
 if TYPE_CHECKING:

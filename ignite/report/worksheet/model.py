@@ -16,12 +16,6 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from ignite.wording.numbers import (
-    NO_VALUE,
-    format_against_limit,
-    format_duration,
-    format_si,
-)
 from ignite.results import (
     SEVERITIES,
     CaseResult,
@@ -32,6 +26,12 @@ from ignite.results import (
     Results,
     RuleRow,
     severity_rank,
+)
+from ignite.wording.numbers import (
+    NO_VALUE,
+    format_against_limit,
+    format_duration,
+    format_si,
 )
 
 ENRICHED_LIMIT_DEFAULT = 0.235

@@ -18,8 +18,8 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 from xml.sax.saxutils import escape
 
-from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 from ignite.results import SEVERITIES, severity_rank
+from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 
 if TYPE_CHECKING:
     from reportlab.graphics.shapes import Drawing
