@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ignite.results import Results, RuleRow
+from ignite.records.results import Results, RuleRow
 from ignite.room.model import Room, Vocabulary
 from ignite.rules.rulebook import Rulebook, load_rulebook
 

@@ -15,7 +15,7 @@ import hashlib
 import itertools
 import math
 
-from ignite.results import (
+from ignite.records.results import (
     Amount,
     CaseResult,
     ChargeResult,

@@ -40,7 +40,7 @@ from pathlib import Path
 from typing import Any
 
 from ignite.errors import IgniteError, InputError, OutputExistsError
-from ignite.results import SEVERITIES, Finding, Results, severity_rank
+from ignite.records.results import SEVERITIES, Finding, Results, severity_rank
 from ignite.rules.rulebook import Rulebook
 
 ROOM_SUFFIXES = (".yaml", ".yml")

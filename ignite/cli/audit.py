@@ -19,7 +19,7 @@ if TYPE_CHECKING:
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 EXIT_INTERRUPTED, EXIT_TERMINATED = 130, 143  # 128 + SIGINT, 128 + SIGTERM
-LEVELS = ("high", "medium", "low", "note", "never")  # ignite.results.SEVERITIES + "never"
+LEVELS = ("high", "medium", "low", "note", "never")  # ignite.records.results.SEVERITIES + "never"
 CAUTION = (
     "The figures support, and never replace, local codes, the manufacturer's instructions "
     "and licensed professional judgement."

@@ -14,7 +14,7 @@ from dataclasses import dataclass, field, replace
 from typing import Any
 
 from ignite.physics import electrostatics
-from ignite.results import Amount, CaseResult, ChargeResult, Finding, Results, severity_rank
+from ignite.records.results import Amount, CaseResult, ChargeResult, Finding, Results, severity_rank
 from ignite.room.model import Room
 from ignite.rules.rulebook import Entry, Limit, Rulebook, limit_dimension
 from ignite.wording.numbers import format_duration, format_si

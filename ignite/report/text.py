@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from ignite.results import ChargeResult, Finding, Results, severity_rank
+from ignite.records.results import ChargeResult, Finding, Results, severity_rank
 from ignite.wording.numbers import format_against_limit, format_duration, format_si
 
 CAUTION = (

@@ -14,7 +14,7 @@ from typing import TYPE_CHECKING
 
 from ignite import __version__
 from ignite.physics import electrostatics, floor, ignition, oxygen, shock
-from ignite.results import (
+from ignite.records.results import (
     CaseResult,
     ChargeResult,
     ComponentResult,

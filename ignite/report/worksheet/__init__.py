@@ -14,8 +14,8 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from ignite.errors import OutputExistsError
+from ignite.records.results import MethodRef, Results, RuleRow
 from ignite.report.worksheet.model import WorksheetView, build_view
-from ignite.results import MethodRef, Results, RuleRow
 
 __all__ = [
     "OutputExistsError",

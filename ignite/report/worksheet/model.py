@@ -16,7 +16,7 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from ignite.results import (
+from ignite.records.results import (
     SEVERITIES,
     CaseResult,
     ChargeResult,

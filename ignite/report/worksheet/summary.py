@@ -18,7 +18,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 from xml.sax.saxutils import escape
 
-from ignite.results import SEVERITIES, severity_rank
+from ignite.records.results import SEVERITIES, severity_rank
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 
 if TYPE_CHECKING:
