@@ -5,7 +5,8 @@ from __future__ import annotations
 from pathlib import Path
 
 from ignite.records.results import Results, RuleRow
-from ignite.room.model import Room, Vocabulary
+from ignite.room.model import Vocabulary
+from ignite.rules.bound import Bound
 from ignite.rules.rulebook import Rulebook, load_rulebook
 
 
@@ -43,60 +44,27 @@ def substance_problem(name: str) -> str | None:
     return None
 
 
-def evaluate_room(path: Path, book: Rulebook) -> tuple[Room, Results]:
-    """Load, compute and evaluate one room; raises InputError for a bad room file."""
+def evaluate_room(path: Path, book: Rulebook) -> tuple[Bound, Results]:
+    """Load, bind, compute and evaluate one room; raises InputError for a bad room file."""
     from ignite.errors import InputError, Problem
     from ignite.findings.evaluate import evaluate
     from ignite.physics.vapour import SubstanceDataError
     from ignite.room.load import load_room
+    from ignite.rules.bind import bind
     from ignite.simulate.compute import compute
 
     room = load_room(path, vocabulary(book))
+    bound = bind(room, book)
     try:
-        results = compute(room, book)
+        results = compute(room, bound)
     except SubstanceDataError as exc:  # a substance the tables know, but without data we need
         raise InputError([Problem(str(path), None, "preparations", str(exc))]) from None
-    return room, evaluate(book, room, results)
+    return bound, evaluate(bound, results)
 
 
 def run_room(path: Path, book: Rulebook) -> Results:
     """The evaluated Results of one room file (see `evaluate_room`)."""
     return evaluate_room(path, book)[1]
-
-
-def rules_in_use(book: Rulebook, room: Room) -> set[str]:
-    """Ids of the entries that bear on this room: every check and parameter, the window in
-    force, the humidity table and body impedance, and the footwear classes, fuels,
-    materials, ignition sources and sites the room names."""
-    from ignite.simulate.compute import fuel_for, saturation_curve_for
-
-    used = {e.id for e in book.of_kind("checks")}
-    used |= {
-        e.id
-        for e in book.of_kind("parameters")
-        if not e.id.startswith("prep.") or room.preparations
-    }
-    used |= {
-        room.floor.criteria,
-        "body.impedance",
-        saturation_curve_for(room.floor.finish, book).id,
-    }
-    used |= {p.footwear.cls for p in room.people if p.footwear.cls}
-    used |= {"static-person"} if room.people else set()
-    used |= {"static-trolley"} if room.trolleys else set()
-    used |= {"brush-discharge"} if room.materials or any(c.materials for c in room.cases) else set()
-    for prep in room.preparations:
-        for name, _ in prep.components:
-            fuel = fuel_for(name, None, book)
-            if fuel is not None:
-                used.add(fuel.id)
-    by_name = {**book.names_of("materials"), **book.names_of("ignition-sources")}
-    names = list(room.materials)
-    for case in room.cases:
-        names += [*case.materials, *case.ignition_sources]
-        used.add(case.site)
-    used |= {by_name[n.lower()].id for n in names if n.lower() in by_name}
-    return {entry_id for entry_id in used if entry_id in book.entries}
 
 
 def rule_rows(book: Rulebook, only: set[str] | None = None) -> list[RuleRow]:
@@ -131,14 +99,14 @@ def write_room_worksheet(
     from ignite.report.worksheet import render_worksheet, write_worksheet
     from ignite.simulate.compute import METHODS
 
-    room, results = evaluate_room(path, book)
+    bound, results = evaluate_room(path, book)
     target = worksheet_path(results, output)
     if target.exists() and not force:
         raise OutputExistsError(target)
     text = Path(path).read_bytes().decode("utf-8")
     data = render_worksheet(
         results,
-        rule_rows(book, rules_in_use(book, room)),
+        rule_rows(book, set(bound.consulted)),
         METHODS,
         text,
         paper="letter" if paper.lower() == "letter" else "A4",

@@ -436,7 +436,7 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
     try:
         from ignite.pipeline import evaluate_room
 
-        room, results = evaluate_room(Path(path), book)
+        bound, results = evaluate_room(Path(path), book)
     except InputError as exc:
         return outcome(INVALID, [str(problem) for problem in exc.problems])
     except Exception as exc:
@@ -448,13 +448,13 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
             ],
         )
     try:
-        from ignite.pipeline import rule_rows, rules_in_use, worksheet_path
+        from ignite.pipeline import rule_rows, worksheet_path
         from ignite.report.worksheet import render_worksheet
         from ignite.simulate.compute import METHODS
 
         pdf = render_worksheet(
             results,
-            rule_rows(book, rules_in_use(book, room)),
+            rule_rows(book, set(bound.consulted)),
             METHODS,
             data.decode("utf-8"),
             paper="letter" if paper.lower() == "letter" else "A4",

@@ -1,1 +1,5 @@
-"""Results and bound checks to findings: never prints, never raises on a hazard."""
+"""Bound checks and Results to findings: never prints, never raises on a hazard.
+
+`evaluate.py` runs the checks; `floor.py`, `charge.py` and `cases.py` are the result
+families a check may read (`registry.py` holds their names).
+"""

@@ -625,3 +625,16 @@ def _window_text(entry: Entry) -> str:
     if entry.has("walking_voltage_high"):
         parts.append(f"walking body voltage < {entry.sourced('walking_voltage_high').text}")
     return "; ".join(parts)
+
+
+def check_dimensions(book: Rulebook, known: Mapping[str, str]) -> list[str]:
+    """Checks whose limit's dimension differs from the dimension of the result they read."""
+    bad = []
+    for check in book.of_kind("checks"):
+        limit = check.get("limit")
+        if limit is not None and limit_dimension(limit, book.entries, known) not in (
+            None,
+            known[check.get("reads")],
+        ):
+            bad.append(check.id)
+    return bad

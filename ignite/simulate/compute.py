@@ -1,12 +1,12 @@
-"""Room -> Results: the one place that feeds the physics with the room and the rules.
+"""Room and bound rules -> Results: the one place that feeds the physics.
 
-Everything here is SI floats. The findings are added afterwards by `evaluate`.
+Everything here is SI floats read from the room and from `Bound` (never the rule book).
+The findings are added afterwards by `ignite.findings`.
 """
 
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
@@ -26,8 +26,9 @@ from ignite.records.results import (
     RoomInfo,
     Triad,
 )
-from ignite.room.model import Case, Person, Preparation, Room, Trolley
-from ignite.rules.rulebook import Entry, Rulebook
+from ignite.room.model import Case, Person, Room, Trolley
+from ignite.rules.bound import Bound, Fuel, PrepAssumptions
+from ignite.wording import sentences
 
 if TYPE_CHECKING:
     from ignite.physics.vapour import PreparationAnalysis
@@ -78,50 +79,54 @@ RH_CHART = tuple(r / 100 for r in range(5, 81, 5))
 
 
 @dataclass(frozen=True)
-class ChargeModel:
-    """The rules' values the charge model needs, read once per room."""
+class _Charging:
+    """The bound charge model and the floor's highest reading, which every leak path includes."""
 
     generation_current: float
     no_spark_voltage: float
-    saturation_curve: Entry
+    saturation_points: tuple[tuple[float, float], ...]
     floor_max: float
 
 
-def compute(room: Room, book: Rulebook) -> Results:
+def compute(room: Room, bound: Bound) -> Results:
     """Every quantity of the result record, without findings."""
     env = room.environment
     mains = room.room.mains
-    floor_result = compute_floor(room, book)
-    model = ChargeModel(
-        generation_current=book.value("charge.generation_current"),
-        no_spark_voltage=book.value("spark.no_spark_voltage"),
-        saturation_curve=saturation_curve_for(room.floor.finish, book),
+    floor_result = compute_floor(room, bound)
+    model = _Charging(
+        generation_current=bound.charge.generation_current,
+        no_spark_voltage=bound.charge.no_spark_voltage,
+        saturation_points=bound.charge.saturation_points,
         floor_max=floor_result.max_ohm,
     )
-    default_c = book.value("body.capacitance")
-    people = tuple(_person(p, model, env.relative_humidity, default_c, book) for p in room.people)
+    default_c = bound.charge.default_capacitance
+    people = tuple(_person(p, model, env.relative_humidity, default_c, bound) for p in room.people)
     trolleys = tuple(_trolley(t, model, env.relative_humidity) for t in room.trolleys)
     charges = people + trolleys
     largest_spark = max((c.spark_energy_J for c in charges), default=None)
     warnings = list(room.warnings)
     _, clamped = electrostatics.saturation_voltage(
-        env.relative_humidity, model.saturation_curve.get("points")
+        env.relative_humidity, list(model.saturation_points)
     )
     if clamped and charges:
         warnings.append(
-            f"RH {env.relative_humidity:.0%} lies outside the humidity table "
-            f"({model.saturation_curve.id}); its end value was used, not an extrapolation"
+            sentences.rh_outside_humidity_table(
+                env.relative_humidity, bound.charge.saturation_curve_id
+            )
         )
 
-    preparations, analyses = _preparations(room, book, warnings)
-    cases = tuple(_case(case, room, book, analyses, largest_spark) for case in room.cases)
-    lowest, lowest_fuel = lowest_mie(room_fuels(room, book, analyses), env_fraction(book), book)
+    preparations, analyses = _preparations(room, bound)
+    ambient = bound.oxygen.ambient
+    cases = tuple(_case(case, room, bound, analyses, largest_spark) for case in room.cases)
+    lowest, lowest_fuel = lowest_mie(room_fuels(room, bound), ambient, ambient)
     if lowest_fuel:
-        lowest_fuel += " in room air"
+        lowest_fuel = sentences.fuel_in_room_air(lowest_fuel)
     for case in cases:
         if case.mie_J is not None and (lowest is None or case.mie_J < lowest):
             lowest = case.mie_J
-            lowest_fuel = f"{case.mie_fuel} at {case.oxidant_at_activation_fraction:.1%} oxidant (case {case.id})"
+            lowest_fuel = sentences.fuel_at_case_oxidant(
+                case.mie_fuel, case.oxidant_at_activation_fraction, case.id
+            )
 
     rise = max(
         (
@@ -131,23 +136,20 @@ def compute(room: Room, book: Rulebook) -> Results:
                 planned.oxygen.nitrous_oxide_flow,
                 env.volume,
                 env.air_changes,
-                book.value("oxygen.ambient"),
+                ambient,
             )
             for planned in room.cases
             if planned.oxygen.delivery in OPEN_DELIVERY
         ),
         default=0.0,
     )
-    if rise > 0.005:
-        warnings.append(
-            f"Open oxygen raises the whole room's oxidant by {rise:.1%} at {env.air_changes * 3600:.0f} air changes/h: "
-            "not negligible; check the ventilation."
-        )
+    if rise > ROOM_RISE_WORTH_SAYING:
+        warnings.append(sentences.room_oxidant_rise(rise, env.air_changes))
     return Results(
         tool_version=__version__,
         input_sha256=room.sha256,
         input_name=Path(room.path).name,
-        rules_digest=book.digest,
+        rules_digest=bound.rules_digest,
         room=RoomInfo(
             room.room.id,
             room.room.name,
@@ -175,55 +177,47 @@ def compute(room: Room, book: Rulebook) -> Results:
         lowest_site_mie_fuel=lowest_fuel,
         largest_spark_J=largest_spark,
         no_spark_voltage_V=model.no_spark_voltage,
-        oxygen_enriched_limit_fraction=book.value("oxygen.enriched_limit"),
+        oxygen_enriched_limit_fraction=bound.oxygen.enriched_limit,
         voltage_vs_rh=tuple((c.label, _voltage_curve(c, model)) for c in charges),
     )
+
+
+ROOM_RISE_WORTH_SAYING = 0.005
+"""A rise of the whole room's oxidant (fraction) worth a warning: a presentation threshold,
+not a safety limit (the findings compare the site's oxidant with the enriched limit)."""
 
 
 # --- floor and shock -------------------------------------------------------------
 
 
-def window_limits(window: Entry, supply_voltage: float) -> tuple[float | None, float | None]:
-    """(lower, upper) limits of a floor window for a supply voltage; None where unset."""
-    low = None
-    if window.has("low"):
-        low = floor.window_low_for_supply(supply_voltage, window.get("low"))
-    return low, window.get("high")
-
-
-def compute_floor(room: Room, book: Rulebook) -> FloorResult:
+def compute_floor(room: Room, bound: Bound) -> FloorResult:
     readings = room.floor.point_to_ground
     stats = floor.floor_statistics(readings)
-    window = book.entry(room.floor.criteria)
+    window = bound.window
     mains = room.room.mains
-    low, high = window_limits(window, mains.voltage)
+    low = window.low.value if window.low is not None else None
+    high = window.high.value if window.high is not None else None
     outside = floor.readings_outside_window(
         readings,
         low,
         high,
-        low_inclusive=bool(window.get("low_inclusive", False)),
-        high_inclusive=bool(window.get("high_inclusive", True)),
+        low_inclusive=window.low_inclusive,
+        high_inclusive=window.high_inclusive,
     )
     passed = not outside
-    mean_low = window.get("mean_low")
     if (
-        mean_low is not None
-        and stats.count >= window.get("mean_min_readings", 1)
-        and stats.mean <= mean_low
+        window.mean_low is not None
+        and stats.count >= window.mean_min_readings
+        and stats.mean <= window.mean_low.value
     ):
         passed = False
-    body, extrapolated = shock.body_impedance(mains.voltage, book.points("body.impedance"))
+    body, extrapolated = shock.body_impedance(mains.voltage, list(bound.shock.body_impedance))
     current = shock.shock_current(mains.voltage, stats.min, body)
     notes = []
     if mains.system == "isolated":
-        notes.append(
-            "Isolated (IT) supply: a first insulation fault does not close this path; "
-            "the current shown would flow after a second fault."
-        )
+        notes.append(sentences.ISOLATED_SUPPLY_SHOCK)
     if extrapolated:
-        notes.append(
-            f"Body impedance taken at the nearest tabulated voltage; {mains.voltage:.0f} V lies outside the table."
-        )
+        notes.append(sentences.body_impedance_outside_table(mains.voltage))
     return FloorResult(
         readings_ohm=tuple(readings),
         min_ohm=stats.min,
@@ -249,24 +243,18 @@ def compute_floor(room: Room, book: Rulebook) -> FloorResult:
 # --- people and trolleys ---------------------------------------------------------
 
 
-def saturation_curve_for(finish: str, book: Rulebook) -> Entry:
-    """The humidity table whose `match` words appear in the floor finish (vinyl by default)."""
-    text = finish.lower()
-    curves = [e for e in book.of_kind("curves") if e.id.startswith("saturation.")]
-    for curve in curves:
-        if any(word.lower() in text for word in curve.get("match", ())):
-            return curve
-    return book.entry("saturation.vinyl")
-
-
-def footwear_resistance(person: Person, book: Rulebook) -> tuple[float, str]:
+def footwear_resistance(person: Person, bound: Bound) -> tuple[float, str]:
     if person.footwear.resistance is not None:
         return person.footwear.resistance, "measured"
-    cls = person.footwear.cls or "insulating"
-    return book.entry(cls).get("resistance"), cls
+    cls = person.footwear.cls or DEFAULT_FOOTWEAR
+    return bound.footwear_resistance(cls), cls
 
 
-def charge_state(
+DEFAULT_FOOTWEAR = "insulating"
+"""Footwear of unknown class is taken as insulating: the cautious side for static."""
+
+
+def _charge_state(
     kind: str,
     label: str,
     count: int,
@@ -274,9 +262,9 @@ def charge_state(
     leak: float,
     capacitance: float,
     rh: float,
-    model: ChargeModel,
+    model: _Charging,
 ) -> ChargeResult:
-    v_sat, _ = electrostatics.saturation_voltage(rh, model.saturation_curve.get("points"))
+    v_sat, _ = electrostatics.saturation_voltage(rh, list(model.saturation_points))
     voltage = electrostatics.body_voltage(model.generation_current, leak, capacitance, v_sat)
     tau = electrostatics.time_constant(leak, capacitance)
     return ChargeResult(
@@ -297,11 +285,11 @@ def charge_state(
 
 
 def _person(
-    person: Person, model: ChargeModel, rh: float, default_c: float, book: Rulebook
+    person: Person, model: _Charging, rh: float, default_c: float, bound: Bound
 ) -> ChargeResult:
-    footwear_r, footwear = footwear_resistance(person, book)
+    footwear_r, footwear = footwear_resistance(person, bound)
     capacitance = person.capacitance if person.capacitance is not None else default_c
-    return charge_state(
+    return _charge_state(
         "person",
         person.role,
         person.count,
@@ -313,8 +301,8 @@ def _person(
     )
 
 
-def _trolley(trolley: Trolley, model: ChargeModel, rh: float) -> ChargeResult:
-    return charge_state(
+def _trolley(trolley: Trolley, model: _Charging, rh: float) -> ChargeResult:
+    return _charge_state(
         "trolley",
         trolley.name,
         1,
@@ -326,10 +314,10 @@ def _trolley(trolley: Trolley, model: ChargeModel, rh: float) -> ChargeResult:
     )
 
 
-def _voltage_curve(charge: ChargeResult, model: ChargeModel) -> tuple[tuple[float, float], ...]:
+def _voltage_curve(charge: ChargeResult, model: _Charging) -> tuple[tuple[float, float], ...]:
     points = []
     for rh in RH_CHART:
-        v_sat, _ = electrostatics.saturation_voltage(rh, model.saturation_curve.get("points"))
+        v_sat, _ = electrostatics.saturation_voltage(rh, list(model.saturation_points))
         points.append(
             (
                 rh,
@@ -347,54 +335,25 @@ def _voltage_curve(charge: ChargeResult, model: ChargeModel) -> tuple[tuple[floa
 # --- fuels and MIE ---------------------------------------------------------------
 
 
-def env_fraction(book: Rulebook) -> float:
-    return book.value("oxygen.ambient")
-
-
-def fuel_for(component: str, cas: str | None, book: Rulebook) -> Entry | None:
-    """The fuels-table entry for a component named by common name or CAS number."""
-    names = book.names_of("fuels")
-    entry = names.get(component.strip().lower())
-    if entry is not None:
-        return entry
-    for fuel in book.of_kind("fuels"):
-        if fuel.get("cas") in (component.strip(), cas):
-            return fuel
-    return None
-
-
-def room_fuels(room: Room, book: Rulebook, analyses: dict[str, PreparationAnalysis]) -> list[Entry]:
+def room_fuels(room: Room, bound: Bound) -> list[Fuel]:
     """Fuels of every preparation stocked in the room."""
-    found: dict[str, Entry] = {}
+    found: dict[str, Fuel] = {}
     for prep in room.preparations:
-        for fuel in _prep_fuels(prep, book, analyses.get(prep.id)):
+        for fuel in bound.fuels.get(prep.id, ()):
             found[fuel.id] = fuel
     return list(found.values())
 
 
-def _prep_fuels(
-    prep: Preparation, book: Rulebook, analysis: PreparationAnalysis | None
-) -> list[Entry]:
-    cas_list: Sequence[str] = analysis.cas if analysis is not None else ()
-    fuels = []
-    for index, (name, _) in enumerate(prep.components):
-        cas = cas_list[index] if index < len(cas_list) else None
-        fuel = fuel_for(name, cas, book)
-        if fuel is not None:
-            fuels.append(fuel)
-    return fuels
-
-
-def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[float | None, str]:
+def lowest_mie(fuels: list[Fuel], oxidant: float, air_fraction: float) -> tuple[float | None, str]:
     """Lowest MIE among fuels at an oxidant fraction, and the fuel that sets it."""
     best: tuple[float | None, str] = (None, "")
     for fuel in fuels:
         mie = ignition.mie_at_oxidant(
-            fuel.get("mie_air"),
+            fuel.mie_air,
             oxidant,
-            fuel.get("exponent"),
-            fuel.get("mie_oxygen"),
-            air_fraction=env_fraction(book),
+            fuel.exponent,
+            fuel.mie_oxygen,
+            air_fraction=air_fraction,
         )
         if best[0] is None or mie < best[0]:
             best = (mie, fuel.title)
@@ -414,21 +373,13 @@ def analyse(
     return vapour.analyse_preparation(components, basis, film_temperature)
 
 
-def prep_assumptions(book: Rulebook) -> dict[str, float]:
-    return {
-        e.id.removeprefix("prep."): float(e.get("value"))
-        for e in book.of_kind("parameters")
-        if e.id.startswith("prep.")
-    }
-
-
 def _preparations(
-    room: Room, book: Rulebook, warnings: list[str]
+    room: Room, bound: Bound
 ) -> tuple[tuple[PreparationResult, ...], dict[str, PreparationAnalysis]]:
-    if not room.preparations:
+    if not room.preparations or bound.prep is None:
         return (), {}
 
-    film_t = prep_assumptions(book).get("skin_temperature_default", 305.15)
+    film_t = bound.prep.skin_temperature_default
     results = []
     analyses: dict[str, PreparationAnalysis] = {}
     for prep in room.preparations:
@@ -446,10 +397,8 @@ def _preparations(
             )
         )
         notes = list(analysis.notes)
-        if not _prep_fuels(prep, book, analysis) and any(analysis.flammable):
-            notes.append(
-                "no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed"
-            )
+        if not bound.fuels.get(prep.id) and any(analysis.flammable):
+            notes.append(sentences.NO_MIE_FOR_FLAMMABLE_COMPONENTS)
         results.append(
             PreparationResult(
                 id=prep.id,
@@ -466,6 +415,22 @@ def _preparations(
     return tuple(results), analyses
 
 
+def _assumption_mapping(assumptions: PrepAssumptions) -> dict[str, float]:
+    """The film model's assumptions keyed as `evaporation.simulate_prep` reads them."""
+    values = {
+        "dry_fraction": assumptions.dry_fraction,
+        "pocket_margin": assumptions.pocket_margin,
+        "under_drape_air_speed": assumptions.under_drape_air_speed,
+        "hair_still_layer": assumptions.hair_still_layer,
+        "hair_exposed_fraction": assumptions.hair_exposed_fraction,
+        "pooling_volume_fraction": assumptions.pooling_volume_fraction,
+        "pooling_area_fraction": assumptions.pooling_area_fraction,
+        "diffusivity_reference_temperature": assumptions.diffusivity_reference_temperature,
+    }
+    values.update({f"diffusivity.{cas}": d for cas, d in assumptions.diffusivities.items()})
+    return values
+
+
 # --- cases -----------------------------------------------------------------------
 
 OPEN_DELIVERY = ("nasal-cannula", "face-mask")
@@ -474,21 +439,18 @@ OPEN_DELIVERY = ("nasal-cannula", "face-mask")
 def _case(
     case: Case,
     room: Room,
-    book: Rulebook,
+    bound: Bound,
     analyses: dict[str, PreparationAnalysis],
     largest_spark: float | None,
 ) -> CaseResult:
-    ambient = book.value("oxygen.ambient")
-    enriched = book.value("oxygen.enriched_limit")
+    ambient = bound.oxygen.ambient
+    enriched = bound.oxygen.enriched_limit
     ox = case.oxygen
     pocket = case.drape_pocket
     notes: list[str] = []
-    near_airway = _near_airway(case.site, book)
+    near_airway = bound.sites_near_airway.get(case.site, True)
     if ox.delivery in OPEN_DELIVERY and not near_airway:
-        notes.append(
-            f"Open {ox.delivery} delivery at the face is taken not to reach the drape pocket at a "
-            f"{case.site} site (rules/sites.yaml); the site is at room air."
-        )
+        notes.append(sentences.open_delivery_away_from_site(ox.delivery, case.site))
     if ox.delivery in OPEN_DELIVERY and near_airway:
         c_ss = oxygen.pocket_steady_state(
             ox.flow, ox.fraction, ox.nitrous_oxide_flow, pocket.exchange, ambient
@@ -498,10 +460,10 @@ def _case(
     else:
         c_ss, buildup = ambient, math.inf
         if ox.delivery == "closed-airway":
-            notes.append("Closed airway: the pocket is taken at room air (no cuff leak assumed).")
+            notes.append(sentences.CLOSED_AIRWAY)
     washout = oxygen.washout_time(c_ss, enriched, pocket.volume, pocket.exchange, ambient)
     ceiling_stop = oxygen.washout_time(
-        c_ss, book.value("oxygen.open_delivery_ceiling"), pocket.volume, pocket.exchange, ambient
+        c_ss, bound.oxygen.open_delivery_ceiling, pocket.volume, pocket.exchange, ambient
     )
     at_activation = oxygen.fraction_after_stop(
         c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient
@@ -510,23 +472,19 @@ def _case(
         c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
     )
 
-    fuels = room_fuels(room, book, analyses)
-    mie, mie_fuel = lowest_mie(fuels, at_activation, book)
+    mie, mie_fuel = lowest_mie(room_fuels(room, bound), at_activation, ambient)
 
-    materials = book.names_of("materials")
+    materials = bound.materials
     loi = [
-        (name, materials[name.lower()].get("loi"))
-        for name in case.materials
-        if name.lower() in materials
+        (name, materials[name.lower()].loi) for name in case.materials if name.lower() in materials
     ]
-    allowance = book.value("materials.loi_allowance")
-    sustaining = ignition.materials_sustaining(c_ss, loi, allowance)
+    sustaining = ignition.materials_sustaining(c_ss, loi, bound.loi_allowance)
     holding = tuple(
         name
         for name in case.materials
         if name.lower() in materials
         and ignition.holds_charge(
-            room.environment.relative_humidity, materials[name.lower()].get("holds_charge_below_rh")
+            room.environment.relative_humidity, materials[name.lower()].holds_charge_below_rh
         )
     )
 
@@ -534,12 +492,12 @@ def _case(
     film_curve: tuple[tuple[float, float], ...] = ()
     fuel_at_activation = False
     prep_flammable = False
-    if case.prep is not None and case.prep.preparation in analyses:
+    if case.prep is not None and case.prep.preparation in analyses and bound.prep is not None:
         from ignite.physics import evaporation
 
-        assumptions = prep_assumptions(book)
+        assumptions = bound.prep
         analysis = analyses[case.prep.preparation]
-        film_t = case.prep.skin_temperature or assumptions.get("skin_temperature_default", 305.15)
+        film_t = case.prep.skin_temperature or assumptions.skin_temperature_default
         if film_t != analysis.film_temperature_K:
             prep = next(p for p in room.preparations if p.id == case.prep.preparation)
             analysis = analyse(prep.components, prep.basis, film_t)
@@ -557,7 +515,7 @@ def _case(
             first_activation_after_s=case.first_activation_after,
             pocket_volume_m3=pocket.volume,
             pocket_exchange_m3_s=pocket.exchange,
-            assumptions=assumptions,
+            assumptions=_assumption_mapping(assumptions),
         )
         drying, peak, safe = (
             outcome.drying_time_s,
@@ -570,10 +528,9 @@ def _case(
         prep_flammable = any(analysis.flammable)
         film_curve = outcome.film_curve
         notes.extend(outcome.notes)
-        margin = assumptions.get("pocket_margin", 0.25)
         fuel_at_activation = (
-            outcome.pocket_at_activation_fraction_of_lfl >= margin
-            or outcome.flammable_left_at_activation_fraction > assumptions.get("dry_fraction", 0.01)
+            outcome.pocket_at_activation_fraction_of_lfl >= assumptions.pocket_margin
+            or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction
         )
 
     head_neck_open = ox.delivery in OPEN_DELIVERY and near_airway
@@ -619,14 +576,6 @@ def _case(
         film_curve=film_curve,
         notes=tuple(notes),
     )
-
-
-def _near_airway(site: str, book: Rulebook) -> bool:
-    """Whether open oxygen at the face reaches the drape pocket of this site (rules/sites.yaml)."""
-    entry = book.entries.get(site)
-    if entry is None or entry.kind != "sites":
-        return True  # an unknown site is treated as near the airway: the cautious side
-    return bool(entry.get("near_airway"))
 
 
 def _oxygen_curve(

@@ -8,8 +8,14 @@ from pathlib import Path
 import pytest
 
 from ignite.errors import RuleFileError
-from ignite.findings.evaluate import check_dimensions, known_results
-from ignite.rules.rulebook import FLAGS, Sourced, default_rules_dir, load_rulebook
+from ignite.findings.evaluate import known_results
+from ignite.rules.rulebook import (
+    FLAGS,
+    Sourced,
+    check_dimensions,
+    default_rules_dir,
+    load_rulebook,
+)
 
 
 def test_every_value_has_a_source_and_a_flag(book):
@@ -25,7 +31,7 @@ def test_checks_read_known_results_with_matching_units(book):
     known = known_results()
     for check in book.of_kind("checks"):
         assert check.get("reads") in known
-    assert check_dimensions(book) == []
+    assert check_dimensions(book, known_results()) == []
 
 
 def _copy_rules(tmp_path: Path) -> Path:

@@ -1,0 +1,333 @@
+"""Bind the rule book to one room: `bind(room, book) -> Bound`.
+
+This is the one place that reads rule entries for a room. It resolves every value the
+simulations and the findings need into the typed records of `ignite.rules.bound` (SI
+floats with their source and flag where a finding quotes them), and records the id of
+every entry it reads; those ids, and only those, make the worksheet's rules appendix.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+
+from ignite.physics import floor
+from ignite.room.model import Room
+from ignite.rules.bound import (
+    Bound,
+    BoundCheck,
+    BoundLimit,
+    ChargeModel,
+    FloorWindow,
+    FootwearClass,
+    Fuel,
+    Material,
+    OxygenModel,
+    PrepAssumptions,
+    ShockModel,
+    SourcedValue,
+)
+from ignite.rules.rulebook import Entry, Limit, Rulebook
+
+DEFAULT_SATURATION_CURVE = "saturation.vinyl"
+"""The humidity table used when no table's `match` words appear in the floor finish."""
+
+DEFAULT_FOOTWEAR = "insulating"
+"""The footwear class assumed for a person whose footwear is not given: the cautious side."""
+
+_PREP_PREFIX = "prep."
+_DIFFUSIVITY_PREFIX = "prep.diffusivity."
+
+
+class _Reader:
+    """The rule book, read through a recorder of the ids consulted."""
+
+    def __init__(self, book: Rulebook) -> None:
+        self.book = book
+        self.consulted: set[str] = set()
+
+    def entry(self, entry_id: str) -> Entry:
+        self.consulted.add(entry_id)
+        return self.book.entries[entry_id]
+
+    def optional(self, entry_id: str) -> Entry | None:
+        if entry_id not in self.book.entries:
+            return None
+        return self.entry(entry_id)
+
+    def number(self, entry_id: str) -> float:
+        return float(self.entry(entry_id).get("value"))
+
+    def optional_number(self, entry_id: str) -> float | None:
+        entry = self.optional(entry_id)
+        return None if entry is None else float(entry.get("value"))
+
+    def by_name(self, kind: str, name: str) -> Entry | None:
+        """An entry of a kind by its id or any of its names, as a room file writes it."""
+        entry = self.book.names_of(kind).get(name.strip().lower())
+        if entry is not None:
+            self.consulted.add(entry.id)
+        return entry
+
+
+def bind(room: Room, book: Rulebook) -> Bound:
+    """Every rule value this room needs, read once, with the ids consulted."""
+    reader = _Reader(book)
+    window = _window(reader, room.floor.criteria, room.room.mains.voltage)
+    shock = ShockModel(
+        body_impedance=_points(reader.entry("body.impedance")),
+        let_go=reader.number("shock.let_go"),
+    )
+    oxygen = OxygenModel(
+        ambient=reader.number("oxygen.ambient"),
+        enriched_limit=reader.number("oxygen.enriched_limit"),
+        open_delivery_ceiling=reader.number("oxygen.open_delivery_ceiling"),
+    )
+    charge = _charge(reader, room.floor.finish)
+    footwear = _footwear(reader, room)
+    loi_allowance = reader.number("materials.loi_allowance")
+    materials = _materials(reader, room)
+    sites = {case.site: _near_airway(reader, case.site) for case in room.cases}
+    fuels = {prep.id: _fuels(reader, prep.components) for prep in room.preparations}
+    prep = _prep(reader) if room.preparations else None
+    checks = tuple(
+        _check(reader, entry, window)
+        for entry in book.of_kind("checks")
+        if _has_subjects(str(entry.get("reads")), room)
+    )
+    _note_ignition_sources(reader, room)
+    return Bound(
+        rules_digest=book.digest,
+        window=window,
+        shock=shock,
+        charge=charge,
+        footwear=footwear,
+        oxygen=oxygen,
+        loi_allowance=loi_allowance,
+        materials=materials,
+        sites_near_airway=sites,
+        fuels=fuels,
+        prep=prep,
+        checks=checks,
+        consulted=frozenset(reader.consulted),
+    )
+
+
+# --- floor, shock, charge ----------------------------------------------------------
+
+
+def _sourced(entry: Entry, name: str) -> SourcedValue | None:
+    if not entry.has(name):
+        return None
+    item = entry.sourced(name)
+    return SourcedValue(float(item.value), item.source, item.flag)
+
+
+def _window(reader: _Reader, criteria: str, supply_voltage: float) -> FloorWindow:
+    entry = reader.entry(criteria)
+    low = None
+    if entry.has("low"):
+        steps = entry.sourced("low")
+        low = SourcedValue(
+            floor.window_low_for_supply(supply_voltage, steps.value), steps.source, steps.flag
+        )
+    return FloorWindow(
+        id=entry.id,
+        title=entry.title,
+        low=low,
+        high=_sourced(entry, "high"),
+        low_inclusive=bool(entry.get("low_inclusive", False)),
+        high_inclusive=bool(entry.get("high_inclusive", True)),
+        mean_low=_sourced(entry, "mean_low"),
+        mean_min_readings=int(entry.get("mean_min_readings", 1)),
+        system_high=_sourced(entry, "system_high"),
+        walking_voltage_high=_sourced(entry, "walking_voltage_high"),
+    )
+
+
+def _points(entry: Entry) -> tuple[tuple[float, float], ...]:
+    return tuple((float(x), float(y)) for x, y in entry.get("points"))
+
+
+def _charge(reader: _Reader, finish: str) -> ChargeModel:
+    curve = reader.entry(_saturation_curve_id(reader.book, finish))
+    return ChargeModel(
+        generation_current=reader.number("charge.generation_current"),
+        no_spark_voltage=reader.number("spark.no_spark_voltage"),
+        default_capacitance=reader.number("body.capacitance"),
+        saturation_curve_id=curve.id,
+        saturation_points=_points(curve),
+    )
+
+
+def _saturation_curve_id(book: Rulebook, finish: str) -> str:
+    """The humidity table whose `match` words appear in the floor finish (vinyl by default)."""
+    text = finish.lower()
+    for curve in book.of_kind("curves"):
+        if curve.id.startswith("saturation.") and any(
+            word.lower() in text for word in curve.get("match", ())
+        ):
+            return curve.id
+    return DEFAULT_SATURATION_CURVE
+
+
+def _footwear(reader: _Reader, room: Room) -> tuple[FootwearClass, ...]:
+    """Every footwear class (the static mitigation names those that meet a limit)."""
+    if not room.people:
+        return ()
+    classes = [
+        FootwearClass(entry.id, float(reader.entry(entry.id).get("resistance")))
+        for entry in reader.book.of_kind("footwear")
+    ]
+    return tuple(sorted(classes, key=lambda c: c.resistance))
+
+
+# --- cases: materials, sites, fuels, preparations ------------------------------------
+
+
+def _materials(reader: _Reader, room: Room) -> dict[str, Material]:
+    found: dict[str, Material] = {}
+    names = list(room.materials) + [name for case in room.cases for name in case.materials]
+    for name in names:
+        entry = reader.by_name("materials", name)
+        if entry is not None:
+            found[name.lower()] = Material(
+                entry.id,
+                entry.title,
+                float(entry.get("loi")),
+                float(entry.get("holds_charge_below_rh")),
+            )
+    return found
+
+
+def _near_airway(reader: _Reader, site: str) -> bool:
+    """Whether open oxygen at the face reaches the drape pocket of this site (rules/sites.yaml)."""
+    entry = reader.book.entries.get(site)
+    if entry is None or entry.kind != "sites":
+        return True  # an unknown site is treated as near the airway: the cautious side
+    return bool(reader.entry(site).get("near_airway"))
+
+
+def _fuels(reader: _Reader, components: Iterable[tuple[str, float]]) -> tuple[Fuel, ...]:
+    """The fuels-table entries of a preparation's components, by name, alias or CAS number."""
+    fuels = []
+    for name, _ in components:
+        entry = reader.by_name("fuels", name) or _fuel_by_cas(reader, name)
+        if entry is not None:
+            mie_oxygen = entry.get("mie_oxygen")
+            fuels.append(
+                Fuel(
+                    id=entry.id,
+                    title=entry.title,
+                    cas=str(entry.get("cas")),
+                    mie_air=float(entry.get("mie_air")),
+                    exponent=float(entry.get("exponent")),
+                    mie_oxygen=None if mie_oxygen is None else float(mie_oxygen),
+                )
+            )
+    return tuple(fuels)
+
+
+def _fuel_by_cas(reader: _Reader, name: str) -> Entry | None:
+    """A fuel named by its CAS number, or by a name the substance tables resolve to one."""
+    cas = {name.strip()}
+    fuels = reader.book.of_kind("fuels")
+    if not any(f.get("cas") in cas for f in fuels):
+        from ignite.physics import vapour  # chemicals: heavy, and only for unlisted names
+
+        try:
+            cas.add(vapour.substance(name).cas)
+        except vapour.SubstanceDataError:
+            return None
+    for fuel in fuels:
+        if fuel.get("cas") in cas:
+            reader.consulted.add(fuel.id)
+            return fuel
+    return None
+
+
+def _prep(reader: _Reader) -> PrepAssumptions:
+    diffusivities = {
+        entry.id.removeprefix(_DIFFUSIVITY_PREFIX): reader.number(entry.id)
+        for entry in reader.book.of_kind("parameters")
+        if entry.id.startswith(_DIFFUSIVITY_PREFIX)
+    }
+    return PrepAssumptions(
+        dry_fraction=reader.number("prep.dry_fraction"),
+        pocket_margin=reader.number("prep.pocket_margin"),
+        under_drape_air_speed=reader.number("prep.under_drape_air_speed"),
+        hair_still_layer=reader.number("prep.hair_still_layer"),
+        hair_exposed_fraction=reader.number("prep.hair_exposed_fraction"),
+        pooling_volume_fraction=reader.number("prep.pooling_volume_fraction"),
+        pooling_area_fraction=reader.number("prep.pooling_area_fraction"),
+        diffusivity_reference_temperature=reader.number("prep.diffusivity_reference_temperature"),
+        diffusivities=diffusivities,
+        skin_temperature_default=reader.number("prep.skin_temperature_default"),
+        label_minimum_hairless=reader.optional_number("prep.label_minimum_hairless"),
+        label_maximum_hair=reader.optional_number("prep.label_maximum_hair"),
+    )
+
+
+def _note_ignition_sources(reader: _Reader, room: Room) -> None:
+    """The ignition-source entries that describe this room's sources (for the appendix)."""
+    for name in (source for case in room.cases for source in case.ignition_sources):
+        reader.by_name("ignition-sources", name)
+    if room.people:
+        reader.optional("static-person")
+    if room.trolleys:
+        reader.optional("static-trolley")
+    if room.materials or any(case.materials for case in room.cases):
+        reader.optional("brush-discharge")
+
+
+# --- checks --------------------------------------------------------------------------
+
+
+def _has_subjects(reads: str, room: Room) -> bool:
+    """Whether the result a check reads can have a subject in this room: case results need
+    cases, charge results people or trolleys. Checks that cannot apply are not bound (and
+    so not listed among the rules consulted)."""
+    family = reads.split(".", 1)[0]
+    if family == "case":
+        return bool(room.cases)
+    if family == "charge":
+        return bool(room.people or room.trolleys)
+    return True
+
+
+def _check(reader: _Reader, entry: Entry, window: FloorWindow) -> BoundCheck:
+    reader.consulted.add(entry.id)
+    limit: Limit | None = entry.get("limit")
+    test = str(entry.get("test"))
+    return BoundCheck(
+        id=entry.id,
+        title=entry.title,
+        reads=str(entry.get("reads")),
+        test=test,
+        limit=None if limit is None else _limit(reader, limit, test, window),
+        severity=str(entry.get("severity")),
+        group=str(entry.get("group") or ""),
+        detail=str(entry.get("detail", "")),
+        mitigations=tuple(str(m) for m in entry.get("mitigations", ())),
+        source=entry.source,
+        flag=entry.flag,
+    )
+
+
+def _limit(reader: _Reader, limit: Limit, test: str, window: FloorWindow) -> BoundLimit:
+    if limit.kind == "quantity" and limit.value is not None:
+        return BoundLimit(float(limit.value.value), limit.value.source, limit.value.flag)
+    if limit.kind == "param":
+        item = reader.entry(limit.ref).sourced("value")
+        return BoundLimit(float(item.value), item.source, item.flag)
+    if limit.kind == "window":
+        value = window.limit(limit.ref)
+        if value is None:
+            return BoundLimit(None)
+        if limit.ref == "low":
+            outside = not window.low_inclusive
+        elif limit.ref == "high":
+            outside = not window.high_inclusive
+        else:
+            outside = test in ("at-or-above", "at-or-below")
+        return BoundLimit(value.value, value.source, value.flag, inclusive_outside=outside)
+    return BoundLimit(result=limit.ref)
