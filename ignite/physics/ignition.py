@@ -14,15 +14,11 @@ import math
 from collections.abc import Sequence
 
 __all__ = [
-    "AIR_OXYGEN_FRACTION",
     "fitted_exponent",
     "holds_charge",
     "materials_sustaining",
     "mie_at_oxidant",
 ]
-
-AIR_OXYGEN_FRACTION = 0.209
-"""Oxygen mole fraction of dry air [-], the reference point of the MIE scaling."""
 
 
 def mie_at_oxidant(
@@ -30,7 +26,8 @@ def mie_at_oxidant(
     oxidant_fraction: float,
     exponent: float,
     mie_oxygen: float | None = None,
-    air_fraction: float = AIR_OXYGEN_FRACTION,
+    *,
+    air_fraction: float,
 ) -> float:
     """Minimum ignition energy of a fuel at an oxidant fraction between air and oxygen.
 
@@ -54,10 +51,10 @@ def mie_at_oxidant(
     Lewis & von Elbe; with the exponent fitted to the pair, 40 % oxidant gives about
     0.043 mJ and pure oxygen returns the measured 0.003 mJ):
 
-    >>> n = fitted_exponent(0.28e-3, 0.003e-3)
-    >>> round(mie_at_oxidant(0.28e-3, 0.40, n, 0.003e-3) * 1e3, 4)
+    >>> n = fitted_exponent(0.28e-3, 0.003e-3, 0.209)
+    >>> round(mie_at_oxidant(0.28e-3, 0.40, n, 0.003e-3, air_fraction=0.209) * 1e3, 4)
     0.0427
-    >>> round(mie_at_oxidant(0.28e-3, 1.0, n, 0.003e-3) * 1e3, 6)
+    >>> round(mie_at_oxidant(0.28e-3, 1.0, n, 0.003e-3, air_fraction=0.209) * 1e3, 6)
     0.003
 
     Reference: Lewis & von Elbe, Combustion, Flames and Explosions of Gases (MIE
@@ -83,9 +80,7 @@ def mie_at_oxidant(
     return mie
 
 
-def fitted_exponent(
-    mie_air: float, mie_oxygen: float, air_fraction: float = AIR_OXYGEN_FRACTION
-) -> float:
+def fitted_exponent(mie_air: float, mie_oxygen: float, air_fraction: float) -> float:
     """Exponent n of the MIE power law through a measured air / oxygen pair.
 
         n = ln(MIE_air / MIE_O2) / ln(1 / x_air)
@@ -97,7 +92,7 @@ def fitted_exponent(
     Worked example (hydrogen: 0.017 mJ in air, published; 0.0012 mJ in oxygen,
     memory, Lewis & von Elbe; gives n ≈ 1.7, the value usually quoted for hydrogen):
 
-    >>> round(fitted_exponent(0.017e-3, 0.0012e-3), 2)
+    >>> round(fitted_exponent(0.017e-3, 0.0012e-3, 0.209), 2)
     1.69
 
     Reference: Lewis & von Elbe (the pair); the fit is derived, not published.

@@ -28,9 +28,6 @@ __all__ = [
     "washout_time",
 ]
 
-AIR_OXYGEN_FRACTION = 0.209
-"""Oxygen mole fraction of dry air [-]."""
-
 
 def _check_flows(**flows: float) -> None:
     for name, value in flows.items():
@@ -69,7 +66,7 @@ def pocket_steady_state(
     o2_fraction: float,
     n2o_flow: float,
     exchange: float,
-    ambient: float = AIR_OXYGEN_FRACTION,
+    ambient: float,
 ) -> float:
     """Steady oxidant fraction in a well-mixed pocket fed with oxygen and room air.
 
@@ -89,7 +86,7 @@ def pocket_steady_state(
     8 L/min of fresh air, invented case; about 47 %, the order of the ~45 %
     measured under drapes by Barnes & Frantz 2000):
 
-    >>> round(pocket_steady_state(4e-3 / 60, 1.0, 0.0, 8e-3 / 60), 4)
+    >>> round(pocket_steady_state(4e-3 / 60, 1.0, 0.0, 8e-3 / 60, 0.209), 4)
     0.4727
 
     Reference: well-mixed (continuously stirred) volume, steady mass balance; the
@@ -169,7 +166,7 @@ def washout_time(
     c_target: float,
     volume: float,
     exchange: float,
-    ambient: float = AIR_OXYGEN_FRACTION,
+    ambient: float,
 ) -> float:
     """Time for a well-mixed pocket to fall from C_0 to C_target after delivery stops.
 
@@ -185,7 +182,7 @@ def washout_time(
     NFPA 99 oxygen-enriched limit of 23.5 %: about 11 minutes, far beyond the
     one-minute stop of surgical-fire guidance):
 
-    >>> round(washout_time(0.45, 0.235, 0.050, 10e-3 / 60))
+    >>> round(washout_time(0.45, 0.235, 0.050, 10e-3 / 60, 0.209))
     668
 
     Reference: exponential washout of a well-mixed volume (dilution ventilation).
@@ -203,7 +200,7 @@ def fraction_after_stop(
     t: float,
     volume: float,
     exchange: float,
-    ambient: float = AIR_OXYGEN_FRACTION,
+    ambient: float,
 ) -> float:
     """Oxidant fraction in a well-mixed pocket a time t after the delivery stops.
 
@@ -217,7 +214,7 @@ def fraction_after_stop(
     Worked example (the pocket of `washout_time`, one minute after the oxygen
     stops: still about 41 %):
 
-    >>> round(fraction_after_stop(0.45, 60.0, 0.050, 10e-3 / 60), 4)
+    >>> round(fraction_after_stop(0.45, 60.0, 0.050, 10e-3 / 60, 0.209), 4)
     0.4063
 
     Reference: exponential washout of a well-mixed volume (dilution ventilation).
@@ -231,7 +228,7 @@ def room_oxidant_rise(
     n2o_flow: float,
     room_volume: float,
     air_changes_per_s: float,
-    ambient: float = AIR_OXYGEN_FRACTION,
+    ambient: float,
 ) -> float:
     """Steady rise of the whole room's oxidant fraction above ambient from open delivery.
 
@@ -250,7 +247,7 @@ def room_oxidant_rise(
     Worked example (invented 140 m³ theatre at 25 air changes an hour, 4 L/min of
     oxygen: a rise of about 5e-5, negligible):
 
-    >>> round(room_oxidant_rise(4e-3 / 60, 1.0, 0.0, 140.0, 25 / 3600) * 1e5, 2)
+    >>> round(room_oxidant_rise(4e-3 / 60, 1.0, 0.0, 140.0, 25 / 3600, 0.209) * 1e5, 2)
     5.42
 
     Reference: steady well-mixed room (dilution ventilation) mass balance.

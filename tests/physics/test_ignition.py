@@ -15,20 +15,26 @@ from ignite.physics.ignition import (
     mie_at_oxidant,
 )
 
+AIR = 0.209  # oxygen in dry air, as rules/oxygen.yaml oxygen.ambient (published)
+
 
 def test_air_value_at_air_and_power_law_above() -> None:
-    assert mie_at_oxidant(0.2e-3, 0.209, 3.0) == 0.2e-3
-    assert mie_at_oxidant(0.2e-3, 0.418, 3.0) == pytest.approx(0.2e-3 / 8.0, rel=1e-12)
+    assert mie_at_oxidant(0.2e-3, 0.209, 3.0, air_fraction=AIR) == 0.2e-3
+    assert mie_at_oxidant(0.2e-3, 0.418, 3.0, air_fraction=AIR) == pytest.approx(
+        0.2e-3 / 8.0, rel=1e-12
+    )
 
 
 def test_lower_bound_at_measured_oxygen_value() -> None:
     # n = 3 would give 0.2 mJ * 0.209^3 = 1.83 µJ at x = 1; a measured 5 µJ bounds it.
-    assert mie_at_oxidant(0.2e-3, 1.0, 3.0, mie_oxygen=5e-6) == 5e-6
-    assert mie_at_oxidant(0.2e-3, 1.0, 3.0) == pytest.approx(0.2e-3 * 0.209**3, rel=1e-12)
+    assert mie_at_oxidant(0.2e-3, 1.0, 3.0, mie_oxygen=5e-6, air_fraction=AIR) == 5e-6
+    assert mie_at_oxidant(0.2e-3, 1.0, 3.0, air_fraction=AIR) == pytest.approx(
+        0.2e-3 * 0.209**3, rel=1e-12
+    )
 
 
 def test_below_air_keeps_the_air_value() -> None:
-    assert mie_at_oxidant(0.2e-3, 0.15, 3.0) == 0.2e-3
+    assert mie_at_oxidant(0.2e-3, 0.15, 3.0, air_fraction=AIR) == 0.2e-3
 
 
 def test_custom_air_fraction() -> None:
@@ -47,15 +53,15 @@ def test_custom_air_fraction() -> None:
 )
 def test_mie_rejects_bad_inputs(args: tuple[float, float, float, float | None]) -> None:
     with pytest.raises(ValueError):
-        mie_at_oxidant(*args)
+        mie_at_oxidant(*args, air_fraction=AIR)
 
 
 def test_fitted_exponent_round_trip() -> None:
-    n = fitted_exponent(0.5e-3, 2e-6)
+    n = fitted_exponent(0.5e-3, 2e-6, air_fraction=AIR)
     assert n == pytest.approx(math.log(250.0) / math.log(1 / 0.209))
-    assert mie_at_oxidant(0.5e-3, 1.0, n) == pytest.approx(2e-6, rel=1e-12)
+    assert mie_at_oxidant(0.5e-3, 1.0, n, air_fraction=AIR) == pytest.approx(2e-6, rel=1e-12)
     with pytest.raises(ValueError):
-        fitted_exponent(0.0, 1e-6)
+        fitted_exponent(0.0, 1e-6, air_fraction=AIR)
 
 
 @given(
@@ -70,7 +76,9 @@ def test_more_oxidant_never_raises_mie(
 ) -> None:
     low, high = sorted((x1, x2))
     bound = mie_air / 100.0 if bounded else None
-    assert mie_at_oxidant(mie_air, high, n, bound) <= mie_at_oxidant(mie_air, low, n, bound)
+    assert mie_at_oxidant(mie_air, high, n, bound, air_fraction=AIR) <= mie_at_oxidant(
+        mie_air, low, n, bound, air_fraction=AIR
+    )
 
 
 def test_materials_sustaining_threshold_and_order() -> None:

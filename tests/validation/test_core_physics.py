@@ -32,6 +32,8 @@ from ignite.physics.oxygen import (
 )
 from ignite.physics.shock import body_impedance, shock_current
 
+AIR = 0.209  # oxygen in dry air, as rules/oxygen.yaml oxygen.ambient (published)
+
 RULES = Path(__file__).resolve().parents[2] / "rules"
 LPM = 1e-3 / 60.0  # one litre per minute in m³/s
 
@@ -138,25 +140,35 @@ MIE_PAIRS = [
 
 @pytest.mark.parametrize(("fuel", "air", "oxygen"), MIE_PAIRS, ids=[p[0] for p in MIE_PAIRS])
 def test_mie_end_points(fuel: str, air: float, oxygen: float) -> None:
-    n = fitted_exponent(air, oxygen)
-    assert mie_at_oxidant(air, 0.209, n, oxygen) == air  # MIE in air, published
+    n = fitted_exponent(air, oxygen, air_fraction=AIR)
+    assert mie_at_oxidant(air, 0.209, n, oxygen, air_fraction=AIR) == air  # MIE in air, published
     # Without the lower bound, so that the power law itself must land on the O2 value.
-    assert mie_at_oxidant(air, 1.0, n) == pytest.approx(oxygen, rel=1e-12)  # O2, memory
+    assert mie_at_oxidant(air, 1.0, n, air_fraction=AIR) == pytest.approx(
+        oxygen, rel=1e-12
+    )  # O2, memory
 
 
 def test_fitted_exponents_match_the_quoted_values() -> None:
     # Physics guide §3 (derived from the memory pairs): n ≈ 1.7 for hydrogen, ≈ 3 for
     # organic vapours.
-    assert fitted_exponent(0.017e-3, 0.0012e-3) == pytest.approx(1.7, abs=0.05)  # hydrogen
-    assert fitted_exponent(0.28e-3, 0.003e-3) == pytest.approx(3.0, abs=0.2)  # methane
-    assert fitted_exponent(0.25e-3, 0.002e-3) == pytest.approx(3.0, abs=0.2)  # propane
+    assert fitted_exponent(0.017e-3, 0.0012e-3, air_fraction=AIR) == pytest.approx(
+        1.7, abs=0.05
+    )  # hydrogen
+    assert fitted_exponent(0.28e-3, 0.003e-3, air_fraction=AIR) == pytest.approx(
+        3.0, abs=0.2
+    )  # methane
+    assert fitted_exponent(0.25e-3, 0.002e-3, air_fraction=AIR) == pytest.approx(
+        3.0, abs=0.2
+    )  # propane
 
 
 def test_mie_in_oxygen_enriched_pocket_falls_below_a_person_spark() -> None:
     # Methane at 45 % oxidant (Barnes & Frantz 2000, published) against the 7.5 mJ of a
     # 150 pF person at 10 kV (IEC 61000-4-2, published): already far below in air.
     air, oxygen = MIE_PAIRS[0][1], MIE_PAIRS[0][2]
-    mie = mie_at_oxidant(air, 0.45, fitted_exponent(air, oxygen), oxygen)
+    mie = mie_at_oxidant(
+        air, 0.45, fitted_exponent(air, oxygen, air_fraction=AIR), oxygen, air_fraction=AIR
+    )
     assert oxygen < mie < air / 5
     assert mie < spark_energy(150e-12, 10e3)
 
@@ -181,7 +193,7 @@ def _solve_pocket(
 def test_pocket_build_up_matches_the_numerical_mass_balance() -> None:
     # Invented pocket: 30 L, cannula 3 L/min at 100 % O2, 0.5 L/min N2O, 7 L/min air.
     volume, q_o, q_n, q_e = 0.030, 3 * LPM, 0.5 * LPM, 7 * LPM
-    c_ss = pocket_steady_state(q_o, 1.0, q_n, q_e)
+    c_ss = pocket_steady_state(q_o, 1.0, q_n, q_e, ambient=AIR)
     total = pocket_outflow(q_o, q_n, q_e)
     times = [0.0, 10.0, 60.0, 180.0, 600.0, 3600.0]
     sol = _solve_pocket(volume, q_o * 1.0 + q_n + q_e * 0.209, total, 0.209, times)
@@ -199,12 +211,14 @@ def test_washout_matches_the_numerical_mass_balance() -> None:
     # Invented pocket: 50 L at 45 % O2 when the oxygen stops, 10 L/min fresh air; the
     # target is the NFPA 99 oxygen-enriched limit, 23.5 % (published).
     volume, q_e, c0 = 0.050, 10 * LPM, 0.45
-    t_wash = washout_time(c0, 0.235, volume, q_e)
+    t_wash = washout_time(c0, 0.235, volume, q_e, ambient=AIR)
     times = [0.0, 60.0, t_wash]
     sol = _solve_pocket(volume, q_e * 0.209, q_e, c0, times)
     assert sol.success
     assert sol.y[0][-1] == pytest.approx(0.235, abs=1e-8)
-    assert fraction_after_stop(c0, 60.0, volume, q_e) == pytest.approx(sol.y[0][1], abs=1e-8)
+    assert fraction_after_stop(c0, 60.0, volume, q_e, ambient=AIR) == pytest.approx(
+        sol.y[0][1], abs=1e-8
+    )
     # One minute of stopping (published guidance) is not enough for this pocket.
     assert t_wash > 60.0
 
@@ -214,11 +228,13 @@ def test_plausible_pocket_gives_the_barnes_frantz_order() -> None:
     # at 4 L/min. A pocket of tens of litres with a few L/min of fresh air (invented,
     # plausible) should give that order, not room air and not pure oxygen.
     q_o = 4 * LPM
-    fractions = [pocket_steady_state(q_o, 1.0, 0.0, q_e * LPM) for q_e in (4, 6, 8, 10, 12)]
+    fractions = [
+        pocket_steady_state(q_o, 1.0, 0.0, q_e * LPM, ambient=AIR) for q_e in (4, 6, 8, 10, 12)
+    ]
     assert all(0.35 < c < 0.65 for c in fractions)
     assert min(fractions) < 0.45 < max(fractions)
     # ... and reaches it within minutes, as measured during surgery.
-    c_ss = pocket_steady_state(q_o, 1.0, 0.0, 8 * LPM)
+    c_ss = pocket_steady_state(q_o, 1.0, 0.0, 8 * LPM, ambient=AIR)
     t = buildup_time(0.45, 0.209, c_ss, 0.030, pocket_outflow(q_o, 0.0, 8 * LPM))
     assert 60.0 < t < 600.0
 
