@@ -10,7 +10,6 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
-from typing import TYPE_CHECKING
 
 from ignite import __version__
 from ignite.physics import electrostatics, floor, ignition, oxygen, shock
@@ -27,10 +26,11 @@ from ignite.records.results import (
     Triad,
 )
 from ignite.room.model import Case, Person, Preparation, Room, Trolley
+from ignite.rules.bound import PrepAssumptions
 from ignite.rules.rulebook import Entry, Rulebook
-
-if TYPE_CHECKING:
-    from ignite.physics.vapour import PreparationAnalysis
+from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
+from ignite.simulate.notes import worded
+from ignite.simulate.preparation import PreparationAnalysis, analyse_preparation
 
 METHODS: tuple[MethodRef, ...] = (
     MethodRef(
@@ -408,10 +408,8 @@ def lowest_mie(fuels: Sequence[Entry], oxidant: float, book: Rulebook) -> tuple[
 def analyse(
     components: tuple[tuple[str, float], ...], basis: str, film_temperature: float
 ) -> PreparationAnalysis:
-    """`vapour.analyse_preparation`, kept per process: an audit's rooms share their preparations."""
-    from ignite.physics import vapour
-
-    return vapour.analyse_preparation(components, basis, film_temperature)
+    """`analyse_preparation`, kept per process: an audit's rooms share their preparations."""
+    return analyse_preparation(components, basis, film_temperature)
 
 
 def prep_assumptions(book: Rulebook) -> dict[str, float]:
@@ -420,6 +418,31 @@ def prep_assumptions(book: Rulebook) -> dict[str, float]:
         for e in book.of_kind("parameters")
         if e.id.startswith("prep.")
     }
+
+
+def prep_assumptions_record(book: Rulebook) -> PrepAssumptions:
+    """The rule book's `prep.*` parameters as the drying model's typed record (SI)."""
+    values = prep_assumptions(book)
+    prefix = "diffusivity."
+    diffusivities = {
+        key.removeprefix(prefix): value for key, value in values.items() if key.startswith(prefix)
+    }
+    reference = "diffusivity_reference_temperature"
+    return PrepAssumptions(
+        dry_fraction=values["dry_fraction"],
+        pocket_margin=values["pocket_margin"],
+        under_drape_air_speed=values["under_drape_air_speed"],
+        hair_still_layer=values["hair_still_layer"],
+        hair_exposed_fraction=values["hair_exposed_fraction"],
+        pooling_volume_fraction=values["pooling_volume_fraction"],
+        pooling_area_fraction=values["pooling_area_fraction"],
+        # needed only to move a tabulated diffusivity to the film's temperature
+        diffusivity_reference_temperature=values[reference] if diffusivities else math.nan,
+        diffusivities=diffusivities,
+        skin_temperature_default=values.get("skin_temperature_default", 305.15),
+        label_minimum_hairless=values.get("label_minimum_hairless"),
+        label_maximum_hair=values.get("label_maximum_hair"),
+    )
 
 
 def _preparations(
@@ -445,7 +468,7 @@ def _preparations(
                 strict=True,
             )
         )
-        notes = list(analysis.notes)
+        notes = list(worded(analysis.notes))
         if not _prep_fuels(prep, book, analysis) and any(analysis.flammable):
             notes.append(
                 "no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed"
@@ -535,29 +558,21 @@ def _case(
     fuel_at_activation = False
     prep_flammable = False
     if case.prep is not None and case.prep.preparation in analyses:
-        from ignite.physics import evaporation
-
-        assumptions = prep_assumptions(book)
+        assumptions = prep_assumptions_record(book)
         analysis = analyses[case.prep.preparation]
-        film_t = case.prep.skin_temperature or assumptions.get("skin_temperature_default", 305.15)
+        film_t = case.prep.skin_temperature or assumptions.skin_temperature_default
         if film_t != analysis.film_temperature_K:
             prep = next(p for p in room.preparations if p.id == case.prep.preparation)
             analysis = analyse(prep.components, prep.basis, film_t)
-        outcome = evaporation.simulate_prep(
+        outcome = simulate_prep(
             analysis,
-            volume_m3=case.prep.volume,
-            area_m2=case.prep.area,
-            air_speed_m_s=case.air_speed,
-            film_temperature_K=film_t,
-            air_temperature_K=room.environment.temperature,
-            relative_humidity=room.environment.relative_humidity,
-            hair=case.prep.hair,
-            pooling=case.prep.pooling,
-            draping_after_s=case.draping_after,
-            first_activation_after_s=case.first_activation_after,
-            pocket_volume_m3=pocket.volume,
-            pocket_exchange_m3_s=pocket.exchange,
-            assumptions=assumptions,
+            Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
+            RoomAir(
+                room.environment.temperature, room.environment.relative_humidity, case.air_speed
+            ),
+            DrapePlan(case.draping_after, case.first_activation_after),
+            DrapePocket(pocket.volume, pocket.exchange),
+            assumptions,
         )
         drying, peak, safe = (
             outcome.drying_time_s,
@@ -569,11 +584,11 @@ def _case(
         pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
         prep_flammable = any(analysis.flammable)
         film_curve = outcome.film_curve
-        notes.extend(outcome.notes)
-        margin = assumptions.get("pocket_margin", 0.25)
+        notes.extend(worded(outcome.notes))
+        margin = assumptions.pocket_margin
         fuel_at_activation = (
             outcome.pocket_at_activation_fraction_of_lfl >= margin
-            or outcome.flammable_left_at_activation_fraction > assumptions.get("dry_fraction", 0.01)
+            or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction
         )
 
     head_neck_open = ox.delivery in OPEN_DELIVERY and near_airway
