@@ -147,48 +147,60 @@ class FilmModel:
         mean_temperature = 0.5 * (film_temperature + air_temperature)
         self.viscosity = air_kinematic_viscosity(mean_temperature, pressure)
 
-        room = [0.0] * self.count
-        if WATER_CAS in self.cas:
-            water_pressure = relative_humidity * vapour_pressure(WATER_CAS, air_temperature)
-            room[self.cas.index(WATER_CAS)] = water_pressure / (GAS_CONSTANT * air_temperature)
-        self.room = room
-
+        self.room = self._room_concentrations(relative_humidity)
         # Transfer coefficients [m/s] per patch and component, in open air and under drapes.
         warmth = (film_temperature - air_temperature) / mean_temperature
-        self.k_open: list[list[float]] = []
-        self.k_covered: list[list[float]] = []
         self.open_regimes: set[str] = set()
-        for patch in self.patches:
-            for covered, table in ((False, self.k_open), (True, self.k_covered)):
-                speed = under_drape_air_speed if covered else air_speed
-                row = []
-                for i in range(self.count):
-                    if not self.volatile[i]:
-                        row.append(0.0)
-                        continue
-                    k, regime = film_mass_transfer_coefficient(
-                        self.diffusivities[i],
-                        self.viscosity,
-                        0.0 if patch.sheltered else speed,
-                        patch.flow_length,
-                        patch.area,
-                        warmth,
-                        patch.still_layer,
-                    )
-                    row.append(k)
-                    if not covered and not patch.sheltered and self.flammable[i]:
-                        self.open_regimes.add(regime)
-                table.append(row)
-
+        self.k_open = self._coefficients(air_speed, warmth, covered=False)
+        self.k_covered = self._coefficients(under_drape_air_speed, warmth, covered=True)
         self.molar_volumes = list(analysis.molar_volumes)
-        molar_volume = sum(
-            x * v for x, v in zip(analysis.mole_fractions, self.molar_volumes, strict=True)
-        )
-        self.initial: list[float] = []
+        self.initial = self._initial_amounts(analysis.mole_fractions)
+        self.flammable_mass0 = self.flammable_mass(self.initial)
+
+    def _room_concentrations(self, relative_humidity: float) -> list[float]:
+        """Each component's concentration in the room's air [mol/m³]: its water vapour only."""
+        room = [0.0] * self.count
+        if WATER_CAS in self.cas:
+            water_pressure = relative_humidity * vapour_pressure(WATER_CAS, self.air_temperature)
+            room[self.cas.index(WATER_CAS)] = water_pressure / (GAS_CONSTANT * self.air_temperature)
+        return room
+
+    def _coefficients(self, speed: float, warmth: float, *, covered: bool) -> list[list[float]]:
+        """Mass-transfer coefficients [m/s] per patch and component at an air speed.
+
+        In open air, the regimes that set a flammable component's coefficient on an
+        unsheltered patch are collected in `open_regimes`.
+        """
+        table: list[list[float]] = []
+        for patch in self.patches:
+            row = []
+            for i in range(self.count):
+                if not self.volatile[i]:
+                    row.append(0.0)
+                    continue
+                k, regime = film_mass_transfer_coefficient(
+                    self.diffusivities[i],
+                    self.viscosity,
+                    0.0 if patch.sheltered else speed,
+                    patch.flow_length,
+                    patch.area,
+                    warmth,
+                    patch.still_layer,
+                )
+                row.append(k)
+                if not covered and not patch.sheltered and self.flammable[i]:
+                    self.open_regimes.add(regime)
+            table.append(row)
+        return table
+
+    def _initial_amounts(self, mole_fractions: Sequence[float]) -> list[float]:
+        """Moles of each component in each patch at the end of prepping."""
+        molar_volume = sum(x * v for x, v in zip(mole_fractions, self.molar_volumes, strict=True))
+        initial: list[float] = []
         for patch in self.patches:
             moles = patch.volume / molar_volume
-            self.initial.extend(x * moles for x in analysis.mole_fractions)
-        self.flammable_mass0 = self.flammable_mass(self.initial)
+            initial.extend(x * moles for x in mole_fractions)
+        return initial
 
     def flammable_mass(self, state: Sequence[float]) -> float:
         total = 0.0
