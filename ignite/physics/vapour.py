@@ -1,8 +1,8 @@
-"""Flammable preparations: what a liquid is made of and what vapour it gives off.
+"""Flammable liquids: what a liquid is made of and what vapour it gives off.
 
 Composition by volume or mass → liquid mole fractions; UNIFAC activity coefficients;
 vapour pressures; the mixture flash point by Liaw et al. (2002); the mixture LFL by
-Le Chatelier's rule.
+Le Chatelier's rule. `ignite.simulate.preparation` steps these through one preparation.
 
 Pure-substance data come from the tables shipped with `chemicals` and `thermo`, always
 by a named method:
@@ -40,13 +40,12 @@ __all__ = [
     "STANDARD_PRESSURE",
     "VAPOUR_PRESSURE_METHODS",
     "VOLUME_BASIS_TEMPERATURE",
-    "PreparationAnalysis",
+    "WATER_CAS",
     "Substance",
     "SubstanceDataError",
     "UnknownSubstance",
     "activity_coefficients_unifac",
     "activity_model",
-    "analyse_preparation",
     "bubble_point",
     "fraction_of_lfl",
     "lfl_le_chatelier",
@@ -62,6 +61,9 @@ __all__ = [
 
 STANDARD_PRESSURE = 101325.0
 """Standard atmosphere [Pa] (ISO 2533); the pressure at which flash points are tabulated."""
+
+WATER_CAS = "7732-18-5"
+"""CAS number of water."""
 
 VOLUME_BASIS_TEMPERATURE = 293.15
 """Temperature at which a strength 'by volume' is stated [K]: 20 °C, the reference of the
@@ -93,8 +95,6 @@ DENSITY_METHODS: dict[str, str] = {
     "CRC_INORG_L_CONST": "CRC Handbook, inorganic liquids",
 }
 """`thermo` liquid-density methods in order of preference, with the names reports print."""
-
-_UNIFAC_NAME = "UNIFAC (original; Fredenslund, Jones & Prausnitz 1975) as shipped by thermo"
 
 
 class SubstanceDataError(ValueError):
@@ -692,126 +692,3 @@ def fraction_of_lfl(vapour_fractions: Sequence[float], lfls: Sequence[float]) ->
     Reference: Le Chatelier (1891); the index form as in NFPA 69 (memory).
     """
     return sum(y / lfl for y, lfl in zip(vapour_fractions, lfls, strict=True))
-
-
-@dataclass(frozen=True)
-class PreparationAnalysis:
-    """A preparation's liquid and the vapour over it, at the film temperature."""
-
-    names: tuple[str, ...]  # common names as resolved
-    cas: tuple[str, ...]
-    mole_fractions: tuple[float, ...]  # liquid, normalised over the components kept
-    activity_coefficients: tuple[float, ...]  # UNIFAC at film_temperature_K
-    flammable: tuple[bool, ...]  # has an LFL in FIRE_DATA_METHODS (water: False)
-    flash_point_K: float | None  # mixture, Liaw et al. (2002)
-    lfl_fraction: float | None  # Le Chatelier over the saturated vapour's flammable part
-    saturated_vapour_fraction: float | None  # flammable vapour in saturated air, film T
-    film_temperature_K: float
-    methods: tuple[str, ...] = ()
-    notes: tuple[str, ...] = ()
-    molar_volumes: tuple[float, ...] = ()  # m³/mol of each pure liquid at the basis temperature
-    lfls: tuple[float | None, ...] = ()  # pure LFL_i [-]
-
-
-def analyse_preparation(
-    components: Sequence[tuple[str, float]],
-    basis: str,
-    film_temperature_K: float,
-    *,
-    pressure: float = STANDARD_PRESSURE,
-    basis_temperature_K: float = VOLUME_BASIS_TEMPERATURE,
-) -> PreparationAnalysis:
-    """Resolve a preparation's components and describe its liquid and vapour.
-
-    components : (common name or CAS number, fraction 0-1) as in the room file
-    basis : 'volume' or 'mass', what the fractions mean
-    film_temperature_K : temperature of the liquid film [K]
-
-    Fractions need not sum to 1 (non-volatile actives may be left out); mole
-    fractions are normalised over the components kept. A component with no
-    vapour-pressure correlation and no UNIFAC groups (a non-volatile active such as
-    chlorhexidine) is left out of the liquid and named in `notes`. A component with
-    no LFL in FIRE_DATA_METHODS is not counted as fuel, and `notes` say so.
-    Raises UnknownSubstance for a name that `chemicals` cannot resolve, and
-    SubstanceDataError when a volatile component has no UNIFAC groups or a kept
-    component has no liquid density (needed on either basis: the film's volume is
-    turned into moles with it).
-
-    Worked example, 70 % v/v isopropanol in water on skin at 32 °C:
-
-    >>> a = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
-    >>> round(a.flash_point_K - 273.15, 1), a.lfl_fraction, round(a.saturated_vapour_fraction, 3)
-    (20.9, 0.02, 0.048)
-    """
-    if basis not in ("volume", "mass"):
-        raise ValueError(f"basis must be 'volume' or 'mass', got {basis!r}")
-    found = [(substance(name), fraction) for name, fraction in components]
-    notes: list[str] = []
-    kept: list[tuple[Substance, float]] = []
-    for s, fraction in found:
-        if not s.volatile and not s.unifac_groups:
-            notes.append(
-                f"{s.name}: non-volatile and without UNIFAC groups; left out of the liquid"
-            )
-            continue
-        kept.append((s, fraction))
-    if not kept:
-        raise SubstanceDataError(
-            ", ".join(name for name, _ in components), "no component has liquid data"
-        )
-    substances = [s for s, _ in kept]
-    fractions = [f for _, f in kept]
-    cas = tuple(s.cas for s in substances)
-    molar_masses = [s.molar_mass for s in substances]
-    molar_volumes = tuple(liquid_molar_volume(c, basis_temperature_K) for c in cas)
-    if basis == "volume":
-        densities = [m / v for m, v in zip(molar_masses, molar_volumes, strict=True)]
-        x = mole_fractions_from_volume(fractions, molar_masses, densities)
-    else:
-        x = mole_fractions_from_mass(fractions, molar_masses)
-
-    gammas = activity_model(cas)(film_temperature_K, x)
-    flammable = tuple(s.flammable for s in substances)
-    for s in substances:
-        if not s.flammable:
-            if s.cas != "7732-18-5":
-                notes.append(f"{s.name}: no LFL in {' or '.join(FIRE_DATA_METHODS)}; not fuel")
-        elif s.flash_point is None:
-            notes.append(f"{s.name}: no tabulated flash point; left out of the flash-point sum")
-
-    flash_point = mixture_flash_point(cas, x, pressure) if any(flammable) else None
-    lfl = None
-    saturated = None
-    if any(flammable):
-        pressures = [
-            x_i * g * vapour_pressure(c, film_temperature_K)
-            for c, x_i, g in zip(cas, x, gammas, strict=True)
-        ]
-        fuel_pressures = [p for p, f in zip(pressures, flammable, strict=True) if f]
-        fuel_lfls = [s.lfl for s in substances if s.lfl is not None]
-        saturated = sum(fuel_pressures) / pressure
-        if saturated > 0.0:
-            lfl = lfl_le_chatelier(fuel_pressures, fuel_lfls)
-    methods = [
-        _UNIFAC_NAME if len(cas) > 1 else "single component: activity coefficient 1",
-        "mixture flash point: Liaw et al. (2002)",
-        "mixture LFL: Le Chatelier's rule over the saturated vapour",
-        f"composition by {basis}; pure-liquid densities at {basis_temperature_K - 273.15:g} °C",
-    ]
-    for s in substances:
-        methods.extend(s.methods)
-    return PreparationAnalysis(
-        names=tuple(s.name for s in substances),
-        cas=cas,
-        mole_fractions=x,
-        activity_coefficients=gammas,
-        flammable=flammable,
-        flash_point_K=flash_point,
-        lfl_fraction=lfl,
-        saturated_vapour_fraction=saturated,
-        film_temperature_K=film_temperature_K,
-        methods=tuple(methods),
-        notes=tuple(notes),
-        molar_volumes=molar_volumes,
-        lfls=tuple(s.lfl for s in substances),
-    )

@@ -245,6 +245,11 @@ def _fuel_by_cas(reader: _Reader, name: str) -> Entry | None:
     return None
 
 
+def prep_assumptions(book: Rulebook) -> PrepAssumptions:
+    """The film model's assumptions from the `prep.*` parameters (raises KeyError if one is missing)."""
+    return _prep(_Reader(book))
+
+
 def _prep(reader: _Reader) -> PrepAssumptions:
     diffusivities = {
         entry.id.removeprefix(_DIFFUSIVITY_PREFIX): reader.number(entry.id)

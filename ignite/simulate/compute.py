@@ -10,7 +10,6 @@ import math
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
-from typing import TYPE_CHECKING
 
 from ignite import __version__
 from ignite.physics import electrostatics, floor, ignition, oxygen, shock
@@ -27,11 +26,11 @@ from ignite.records.results import (
     Triad,
 )
 from ignite.room.model import Case, Person, Room, Trolley
-from ignite.rules.bound import Bound, Fuel, PrepAssumptions
+from ignite.rules.bound import Bound, Fuel
+from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
+from ignite.simulate.notes import worded
+from ignite.simulate.preparation import PreparationAnalysis, analyse_preparation
 from ignite.wording import sentences
-
-if TYPE_CHECKING:
-    from ignite.physics.vapour import PreparationAnalysis
 
 METHODS: tuple[MethodRef, ...] = (
     MethodRef(
@@ -367,10 +366,8 @@ def lowest_mie(fuels: list[Fuel], oxidant: float, air_fraction: float) -> tuple[
 def analyse(
     components: tuple[tuple[str, float], ...], basis: str, film_temperature: float
 ) -> PreparationAnalysis:
-    """`vapour.analyse_preparation`, kept per process: an audit's rooms share their preparations."""
-    from ignite.physics import vapour
-
-    return vapour.analyse_preparation(components, basis, film_temperature)
+    """`analyse_preparation`, kept per process: an audit's rooms share their preparations."""
+    return analyse_preparation(components, basis, film_temperature)
 
 
 def _preparations(
@@ -396,7 +393,7 @@ def _preparations(
                 strict=True,
             )
         )
-        notes = list(analysis.notes)
+        notes = list(worded(analysis.notes))
         if not bound.fuels.get(prep.id) and any(analysis.flammable):
             notes.append(sentences.NO_MIE_FOR_FLAMMABLE_COMPONENTS)
         results.append(
@@ -413,22 +410,6 @@ def _preparations(
             )
         )
     return tuple(results), analyses
-
-
-def _assumption_mapping(assumptions: PrepAssumptions) -> dict[str, float]:
-    """The film model's assumptions keyed as `evaporation.simulate_prep` reads them."""
-    values = {
-        "dry_fraction": assumptions.dry_fraction,
-        "pocket_margin": assumptions.pocket_margin,
-        "under_drape_air_speed": assumptions.under_drape_air_speed,
-        "hair_still_layer": assumptions.hair_still_layer,
-        "hair_exposed_fraction": assumptions.hair_exposed_fraction,
-        "pooling_volume_fraction": assumptions.pooling_volume_fraction,
-        "pooling_area_fraction": assumptions.pooling_area_fraction,
-        "diffusivity_reference_temperature": assumptions.diffusivity_reference_temperature,
-    }
-    values.update({f"diffusivity.{cas}": d for cas, d in assumptions.diffusivities.items()})
-    return values
 
 
 # --- cases -----------------------------------------------------------------------
@@ -493,29 +474,21 @@ def _case(
     fuel_at_activation = False
     prep_flammable = False
     if case.prep is not None and case.prep.preparation in analyses and bound.prep is not None:
-        from ignite.physics import evaporation
-
         assumptions = bound.prep
         analysis = analyses[case.prep.preparation]
         film_t = case.prep.skin_temperature or assumptions.skin_temperature_default
         if film_t != analysis.film_temperature_K:
             prep = next(p for p in room.preparations if p.id == case.prep.preparation)
             analysis = analyse(prep.components, prep.basis, film_t)
-        outcome = evaporation.simulate_prep(
+        outcome = simulate_prep(
             analysis,
-            volume_m3=case.prep.volume,
-            area_m2=case.prep.area,
-            air_speed_m_s=case.air_speed,
-            film_temperature_K=film_t,
-            air_temperature_K=room.environment.temperature,
-            relative_humidity=room.environment.relative_humidity,
-            hair=case.prep.hair,
-            pooling=case.prep.pooling,
-            draping_after_s=case.draping_after,
-            first_activation_after_s=case.first_activation_after,
-            pocket_volume_m3=pocket.volume,
-            pocket_exchange_m3_s=pocket.exchange,
-            assumptions=_assumption_mapping(assumptions),
+            Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
+            RoomAir(
+                room.environment.temperature, room.environment.relative_humidity, case.air_speed
+            ),
+            DrapePlan(case.draping_after, case.first_activation_after),
+            DrapePocket(pocket.volume, pocket.exchange),
+            assumptions,
         )
         drying, peak, safe = (
             outcome.drying_time_s,
@@ -527,7 +500,7 @@ def _case(
         pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
         prep_flammable = any(analysis.flammable)
         film_curve = outcome.film_curve
-        notes.extend(outcome.notes)
+        notes.extend(worded(outcome.notes))
         fuel_at_activation = (
             outcome.pocket_at_activation_fraction_of_lfl >= assumptions.pocket_margin
             or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction

@@ -15,8 +15,9 @@ from pathlib import Path
 import pytest
 
 from ignite.physics import _cache, vapour
-from ignite.physics.evaporation import simulate_prep
-from ignite.physics.vapour import analyse_preparation
+from ignite.rules.bound import PrepAssumptions
+from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
+from ignite.simulate.preparation import PreparationAnalysis, analyse_preparation
 
 PREPARATIONS = [
     ([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15),
@@ -26,29 +27,26 @@ PREPARATIONS = [
     ([("water", 1.0)], "volume", 305.15),
 ]
 
-PREP_CONDITIONS = {
-    "volume_m3": 10e-6,
-    "area_m2": 0.04,
-    "air_speed_m_s": 0.2,
-    "film_temperature_K": 305.15,
-    "air_temperature_K": 293.15,
-    "relative_humidity": 0.3,
-    "hair": False,
-    "pooling": False,
-    "draping_after_s": 180.0,
-    "first_activation_after_s": 360.0,
-    "pocket_volume_m3": 0.030,
-    "pocket_exchange_m3_s": 10e-3 / 60,
-    "assumptions": {
-        "dry_fraction": 0.01,
-        "pocket_margin": 0.25,
-        "under_drape_air_speed": 0.0,
-        "hair_still_layer": 0.005,
-        "hair_exposed_fraction": 0.5,
-        "pooling_volume_fraction": 0.5,
-        "pooling_area_fraction": 0.1,
-    },
-}
+PREP_CONDITIONS = (
+    Film(volume=10e-6, area=0.04, temperature=305.15),
+    RoomAir(temperature=293.15, relative_humidity=0.3, speed=0.2),
+    DrapePlan(draping_after=180.0, first_activation_after=360.0),
+    DrapePocket(volume=0.030, exchange=10e-3 / 60),
+    PrepAssumptions(
+        dry_fraction=0.01,
+        pocket_margin=0.25,
+        under_drape_air_speed=0.0,
+        hair_still_layer=0.005,
+        hair_exposed_fraction=0.5,
+        pooling_volume_fraction=0.5,
+        pooling_area_fraction=0.1,
+        diffusivity_reference_temperature=298.15,
+        diffusivities={},
+        skin_temperature_default=305.15,
+        label_minimum_hairless=None,
+        label_maximum_hair=None,
+    ),
+)
 
 
 @pytest.fixture(autouse=True)
@@ -70,7 +68,7 @@ def _forget() -> None:
         cached.cache_clear()
 
 
-def _analyses() -> list[vapour.PreparationAnalysis]:
+def _analyses() -> list[PreparationAnalysis]:
     return [analyse_preparation(c, basis, t) for c, basis, t in PREPARATIONS]
 
 
@@ -91,14 +89,14 @@ def sandbox(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
 
 
 @pytest.fixture(scope="module")
-def reference() -> tuple[list[vapour.PreparationAnalysis], object]:
+def reference() -> tuple[list[PreparationAnalysis], object]:
     """The analyses and one simulate_prep outcome computed without any cache."""
     mp = pytest.MonkeyPatch()
     mp.setenv("IGNITE_NO_CACHE", "1")
     _forget()
     try:
         analyses = _analyses()
-        outcome = simulate_prep(analyses[0], **PREP_CONDITIONS)
+        outcome = simulate_prep(analyses[0], *PREP_CONDITIONS)
     finally:
         _forget()
         mp.undo()
@@ -131,7 +129,7 @@ def test_cold_then_warm_cache_gives_identical_results(sandbox, reference, monkey
     # (thermo.unifac.UNIFAC itself must stay: unpickling looks the class up there)
     monkeypatch.setattr(thermo.unifac.UNIFAC, "from_subgroups", no_lookup)
     _assert_identical(_analyses(), expected)  # warm: everything from disk
-    _assert_identical(simulate_prep(_analyses()[0], **PREP_CONDITIONS), expected_outcome)
+    _assert_identical(simulate_prep(_analyses()[0], *PREP_CONDITIONS), expected_outcome)
     assert _files(sandbox) == written
 
 
@@ -183,7 +181,7 @@ def test_no_cache_switch_writes_nothing(sandbox, reference, monkeypatch):
     expected, expected_outcome = reference
     monkeypatch.setenv("IGNITE_NO_CACHE", "1")
     _assert_identical(_analyses(), expected)
-    _assert_identical(simulate_prep(_analyses()[0], **PREP_CONDITIONS), expected_outcome)
+    _assert_identical(simulate_prep(_analyses()[0], *PREP_CONDITIONS), expected_outcome)
     assert not sandbox.exists()
     assert _files(sandbox.parent) == set()
 
@@ -223,7 +221,7 @@ def test_cache_directory_follows_the_environment(monkeypatch, tmp_path):
 
 
 _FRESH_PROCESS = """
-from ignite.physics.vapour import analyse_preparation
+from ignite.simulate.preparation import analyse_preparation
 a = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
 b = analyse_preparation([("ethanol", 0.62), ("water", 0.38)], "mass", 303.15)
 print(repr(a)); print(repr(b))

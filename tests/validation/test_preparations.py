@@ -20,12 +20,12 @@ from ignite.physics.evaporation import (
     mass_transfer_coefficient_mackay_matsugu,
 )
 from ignite.physics.vapour import (
-    analyse_preparation,
     bubble_point,
     liaw_sum,
     substance,
     vapour_pressure,
 )
+from ignite.simulate.preparation import analyse_preparation
 
 C = 273.15
 P = 101325.0
