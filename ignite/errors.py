@@ -4,7 +4,8 @@ A `Problem` names the file, the 1-based line, the key path and what was expected
 found; it prints as ``room.yaml:14: floor.point_to_ground[3]: expected a resistance
 (e.g. '250 kΩ'), got '5 kg'``. Loaders collect every problem in a file and raise one
 `InputError` (or `RuleFileError` for `rules/`) holding all of them, so the user fixes
-everything in one pass. The CLI maps these to exit codes; nothing here prints.
+everything in one pass. Each error carries the exit code the command line ends with
+(`exit_code`, as click's own exceptions do); nothing here prints.
 """
 
 from __future__ import annotations
@@ -36,12 +37,24 @@ class Problem:
         return f"{where}: {self.message}"
 
 
+EXIT_USAGE = 2  # usage error, or an output exists and --force was not given
+EXIT_INVALID = 3  # invalid room or rule file
+
+
 class IgniteError(Exception):
-    """Base of every error ignite raises on purpose."""
+    """Base of every error ignite raises on purpose.
+
+    `exit_code` is the code the command line exits with when this error ends a command:
+    by default a usage error (the command cannot do what it was asked, as asked).
+    """
+
+    exit_code: int = EXIT_USAGE
 
 
 class InputError(IgniteError):
     """An input file is invalid; `problems` lists everything found, in file order."""
+
+    exit_code = EXIT_INVALID
 
     def __init__(self, problems: Iterable[Problem]) -> None:
         self.problems: list[Problem] = list(problems)
@@ -54,9 +67,13 @@ class InputError(IgniteError):
 class RuleFileError(InputError):
     """A file in `rules/` is invalid (same shape as `InputError`)."""
 
+    exit_code = EXIT_INVALID
+
 
 class OutputExistsError(IgniteError):
     """An output file exists and overwriting was not asked for."""
+
+    exit_code = EXIT_USAGE
 
     def __init__(self, path: Path | str) -> None:
         self.path = Path(path)
@@ -67,8 +84,10 @@ class UnitError(ValueError):
     """A quantity string could not be read as the dimension asked for.
 
     `message` says what was expected (with an example) and what was found; the loader
-    adds the file, line and key path.
+    adds the file, line and key path (and so it ends as an `InputError`, exit code 3).
     """
+
+    exit_code = EXIT_INVALID
 
     def __init__(self, message: str) -> None:
         self.message = message

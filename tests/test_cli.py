@@ -9,6 +9,14 @@ from click.testing import CliRunner
 from conftest import ROOT
 
 from ignite.cli.main import main
+from ignite.errors import (
+    IgniteError,
+    InputError,
+    OutputExistsError,
+    Problem,
+    RuleFileError,
+    UnitError,
+)
 from ignite.room.load import load_room_text
 
 
@@ -187,3 +195,71 @@ def test_unknown_substance_is_an_input_error_with_its_line(room_data, write_room
     assert "unknown-substance.yaml:" in result.stderr
     assert "preparations[0].components.unobtainium" in result.stderr
     assert "Traceback" not in result.stderr
+
+
+# Exit codes: each expected value is the README's exit-code table (the user's contract).
+
+
+def test_each_error_carries_the_exit_code_the_readme_documents(tmp_path):
+    problem = Problem("room.yaml", 3, "floor", "expected a mapping")
+    assert InputError([problem]).exit_code == 3  # invalid room file
+    assert RuleFileError([problem]).exit_code == 3  # invalid rule file
+    assert UnitError("expected a resistance, got '5 kg'").exit_code == 3  # becomes an InputError
+    assert OutputExistsError(tmp_path / "x.pdf").exit_code == 2  # exists, no --force
+    assert IgniteError("cannot do that").exit_code == 2  # usage
+
+
+def test_assess_on_a_broken_room_exits_three_and_writes_nothing(room_data, write_room, tmp_path):
+    room_data["floor"]["point_to_ground"][0] = "5 kg"
+    out = tmp_path / "sheet.pdf"
+    result = run("assess", str(write_room(room_data, "broken.yaml")), "-o", str(out))
+    assert result.exit_code == 3
+    assert "broken.yaml:" in result.stderr and "floor.point_to_ground[0]" in result.stderr
+    assert "1 problem(s); no worksheet written" in result.stderr
+    assert not out.exists()
+    assert list(tmp_path.glob("*.pdf")) == []
+
+
+def test_assess_onto_an_existing_worksheet_exits_two_unless_forced(room_data, write_room, tmp_path):
+    room = str(write_room(room_data))
+    out = tmp_path / "sheet.pdf"
+    out.write_bytes(b"an earlier worksheet")
+    result = run("assess", room, "-o", str(out))
+    assert result.exit_code == 2
+    assert f"ignite: {out} exists; use --force to overwrite it" in result.stderr
+    assert out.read_bytes() == b"an earlier worksheet"
+    assert run("assess", room, "-o", str(out), "--force").exit_code == 0
+    assert out.read_bytes().startswith(b"%PDF")
+
+
+def test_several_rooms_exit_with_the_most_serious_code(room_data, write_room, tmp_path):
+    room_data["floor"]["point_to_ground"] = ["40 kΩ"]  # a high finding: below the window
+    reaching = str(write_room(room_data, "reaching.yaml"))
+    room_data["floor"]["point_to_ground"] = ["5 kg"]
+    broken = str(write_room(room_data, "broken.yaml"))
+    outdir = tmp_path / "sheets"
+    # check: a finding at --fail-on gives 1; a broken room among them gives 3, in any order
+    assert run("check", reaching, "--fail-on", "high").exit_code == 1
+    assert run("check", reaching, broken, "--fail-on", "high").exit_code == 3
+    assert run("check", broken, reaching, "--fail-on", "high").exit_code == 3
+    # assess: an existing worksheet (2) outranks a finding (1); a broken room (3) both
+    result = run("assess", reaching, "-o", str(outdir), "--fail-on", "high")
+    assert result.exit_code == 1
+    (written,) = outdir.glob("*.pdf")
+    again = run("assess", reaching, reaching, "-o", str(outdir), "--fail-on", "high")
+    assert again.exit_code == 2
+    assert again.stderr.count("exists; use --force") == 2
+    third = run("assess", broken, reaching, "-o", str(outdir), "--fail-on", "high", "--force")
+    assert third.exit_code == 3
+    assert f"{written}  (" in third.stdout  # the good room still got its worksheet
+
+
+def test_invalid_rules_folder_stops_assess_with_exit_three(tmp_path, room_data, write_room):
+    rules = tmp_path / "rules"
+    rules.mkdir()
+    (rules / "checks.yaml").write_text("format: 2\nkind: checks\nentries: []\n")
+    out = tmp_path / "sheet.pdf"
+    result = run("assess", str(write_room(room_data)), "--rules", str(rules), "-o", str(out))
+    assert result.exit_code == 3
+    assert "ignite: invalid rule file(s):" in result.stderr and "checks.yaml" in result.stderr
+    assert not out.exists()

@@ -159,7 +159,7 @@ def audit(
     if not force:
         earlier = existing_audit_files(output)
         if earlier:
-            _refuse(output, [p.name for p in earlier])
+            _refuse(output, [p.name for p in earlier], EXIT_USAGE)
     rooms = discover_rooms(folder)
     if not rooms:
         raise click.UsageError(f"no room files (*.yaml, *.yml) under {folder}")
@@ -173,7 +173,7 @@ def audit(
         book = open_rulebook(rules_dir)
     except RuleFileError as exc:
         _say(f"ignite: invalid rule file(s):\n{exc}")
-        _exit(EXIT_INVALID)
+        _exit(exc.exit_code)
 
     plain = not sys.stderr.isatty()
     bar = None if plain else click.progressbar(length=len(rooms), label="Auditing", file=sys.stderr)
@@ -204,7 +204,7 @@ def audit(
             if bar is not None:
                 bar.__exit__(None, None, None)
     except OutputExistsError as exc:
-        _refuse(output, [exc.path.name])
+        _refuse(output, [exc.path.name], exc.exit_code)
     except KeyboardInterrupt as exc:
         _say("ignite: audit interrupted; no register or summary written. Run it again to finish.")
         _exit(EXIT_TERMINATED if isinstance(exc, _Terminated) else EXIT_INTERRUPTED)
@@ -213,12 +213,12 @@ def audit(
     _exit(_report(outcome, fail_on))
 
 
-def _refuse(output: Path, names: list[str]) -> NoReturn:
+def _refuse(output: Path, names: list[str], code: int) -> NoReturn:
     _say(
         f"ignite: {output} already holds audit output ({', '.join(names)}); nothing was "
         "written. Use --force to replace it, or choose another -o folder."
     )
-    _exit(EXIT_USAGE)
+    _exit(code)
 
 
 def _report(outcome: AuditOutcome, fail_on: str) -> int:

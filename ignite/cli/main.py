@@ -1,4 +1,4 @@
-"""The `ignite` command line: a thin layer that maps errors to exit codes.
+"""The `ignite` command line: thin click commands; each error carries its own exit code.
 
 Exit codes: 0 ran clean, 1 a finding at or above --fail-on, 2 usage (or an output
 file exists without --force), 3 an invalid room or rule file.
@@ -9,17 +9,22 @@ from __future__ import annotations
 import json
 import os
 import sys
+from collections.abc import Callable, Iterable
 from pathlib import Path
-from typing import TYPE_CHECKING, NoReturn
+from typing import Any, NoReturn
 
 import click
 
 from ignite import __version__
+from ignite.cli.audit import audit
+from ignite.errors import EXIT_INVALID, IgniteError, InputError, OutputExistsError
+from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
+from ignite.records.results import Results
+from ignite.report.text import render_text
+from ignite.room.template import TEMPLATE
+from ignite.rules.rulebook import Rulebook
 
-if TYPE_CHECKING:
-    from ignite.rules.rulebook import Rulebook
-
-EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
+EXIT_CLEAN, EXIT_FINDINGS = 0, 1
 LEVELS = ("high", "medium", "low", "note", "never")
 CAUTION = (
     "The figures support, and never replace, local codes, the manufacturer's instructions "
@@ -51,14 +56,11 @@ def _exit(code: int) -> NoReturn:
 
 
 def _open_rules(rules_dir: Path | None) -> Rulebook:
-    from ignite.errors import RuleFileError
-    from ignite.pipeline import open_rulebook
-
     try:
         return open_rulebook(rules_dir)
-    except RuleFileError as exc:
+    except InputError as exc:  # a RuleFileError
         _say(f"ignite: invalid rule file(s):\n{exc}")
-        _exit(EXIT_INVALID)
+        _exit(exc.exit_code)
 
 
 def _internal_error(path: Path, exc: Exception) -> None:
@@ -73,6 +75,40 @@ def _internal_error(path: Path, exc: Exception) -> None:
 
 def _reaches(severity: str, fail_on: str) -> bool:
     return fail_on != "never" and LEVELS.index(severity) <= LEVELS.index(fail_on)
+
+
+def _room_done(results: Results, fail_on: str) -> int:
+    """Say a room's warnings on stderr; its exit code: 1 if a finding reaches --fail-on."""
+    for warning in results.warnings:
+        _say(f"warning: {warning}")
+    reached = any(_reaches(f.severity, fail_on) for f in results.findings)
+    return EXIT_FINDINGS if reached else EXIT_CLEAN
+
+
+def _each_room(rooms: Iterable[Path], action: Callable[[Path], int], not_done: str) -> int:
+    """Run `action` on every room file in turn; the combined exit code.
+
+    `action(path)` does one room's work and returns its exit code (0 or 1). A room that
+    fails is reported on stderr, with `not_done` saying what did not happen, and never
+    stops the others. The combined code is the most serious of all rooms': 3 invalid or
+    not assessed > 2 an output exists > 1 a finding reached --fail-on > 0 clean.
+    """
+    code = EXIT_CLEAN
+    for path in rooms:
+        try:
+            room_code = action(path)
+        except InputError as exc:
+            _say(str(exc))
+            _say(f"ignite: {path}: {len(exc.problems)} problem(s); {not_done}")
+            room_code = exc.exit_code
+        except IgniteError as exc:
+            _say(f"ignite: {exc}")
+            room_code = exc.exit_code
+        except Exception as exc:
+            _internal_error(path, exc)
+            room_code = EXIT_INVALID
+        code = max(code, room_code)
+    return code
 
 
 @click.group(
@@ -92,39 +128,26 @@ def main() -> None:
 @fail_on_option
 @rules_option
 def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | None) -> None:
-    from ignite.errors import InputError
-    from ignite.pipeline import run_room
-    from ignite.report.text import render_text
-
     book = _open_rules(rules_dir)
-    invalid = reached = False
-    records = []
-    for path in rooms:
-        try:
-            results = run_room(path, book)
-        except InputError as exc:
-            _say(str(exc))
-            _say(f"ignite: {path}: {len(exc.problems)} problem(s); room not assessed")
-            invalid = True
-            continue
-        except Exception as exc:
-            _internal_error(path, exc)
-            invalid = True
-            continue
-        for warning in results.warnings:
-            _say(f"warning: {warning}")
-        reached = reached or any(_reaches(f.severity, fail_on) for f in results.findings)
+    records: list[dict[str, Any]] = []
+
+    def check_room(path: Path) -> int:
+        results = run_room(path, book)
+        code = _room_done(results, fail_on)
         if fmt == "json":
             record = results.to_record()
             record["caution"] = CAUTION
             records.append(record)
         else:
             click.echo(render_text(results))
+        return code
+
+    code = _each_room(rooms, check_room, "room not assessed")
     if fmt == "json" and records:
         click.echo(
             json.dumps(records[0] if len(rooms) == 1 else records, indent=2, ensure_ascii=False)
         )
-    _exit(EXIT_INVALID if invalid else EXIT_FINDINGS if reached else EXIT_CLEAN)
+    _exit(code)
 
 
 @main.command(help="Write the PDF worksheet of one or more rooms.")
@@ -153,44 +176,20 @@ def assess(
     fail_on: str,
     rules_dir: Path | None,
 ) -> None:
-    from ignite.errors import InputError, OutputExistsError
-    from ignite.pipeline import write_room_worksheet
-
     book = _open_rules(rules_dir)
-    invalid = reached = exists = False
     if output is not None and len(rooms) > 1 and output.suffix.lower() == ".pdf":
         raise click.UsageError("with several rooms, -o names a folder, not a .pdf file")
-    for path in rooms:
-        try:
-            results, written = write_room_worksheet(path, book, output, force=force, paper=paper)
-        except InputError as exc:
-            _say(str(exc))
-            _say(f"ignite: {path}: {len(exc.problems)} problem(s); no worksheet written")
-            invalid = True
-            continue
-        except OutputExistsError as exc:
-            _say(f"ignite: {exc}")
-            exists = True
-            continue
-        except Exception as exc:
-            _internal_error(path, exc)
-            invalid = True
-            continue
-        for warning in results.warnings:
-            _say(f"warning: {warning}")
-        reached = reached or any(_reaches(f.severity, fail_on) for f in results.findings)
+
+    def assess_room(path: Path) -> int:
+        results, written = write_room_worksheet(path, book, output, force=force, paper=paper)
+        code = _room_done(results, fail_on)
         worst = results.worst_severity() or "none"
         click.echo(f"{written}  ({len(results.findings)} findings, worst: {worst})")
+        return code
+
+    code = _each_room(rooms, assess_room, "no worksheet written")
     _say(CAUTION)
-    _exit(
-        EXIT_INVALID
-        if invalid
-        else EXIT_USAGE
-        if exists
-        else EXIT_FINDINGS
-        if reached
-        else EXIT_CLEAN
-    )
+    _exit(code)
 
 
 @main.command(
@@ -199,8 +198,6 @@ def assess(
 @click.argument("rule_id", required=False)
 @rules_option
 def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
-    from ignite.pipeline import rule_rows
-
     book = _open_rules(rules_dir)
     entries = list(book.entries.values())
     if rule_id is not None:
@@ -231,11 +228,10 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
 @click.argument("path", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def new(path: Path, force: bool) -> None:
-    from ignite.room.template import TEMPLATE
-
     if path.exists() and not force:
-        _say(f"ignite: {path} exists; use --force to overwrite it")
-        _exit(EXIT_USAGE)
+        exists = OutputExistsError(path)
+        _say(f"ignite: {exists}")
+        _exit(exists.exit_code)
     path.parent.mkdir(parents=True, exist_ok=True)
     temporary = path.with_name(f".{path.name}.tmp")
     temporary.write_text(TEMPLATE, encoding="utf-8")
@@ -243,10 +239,4 @@ def new(path: Path, force: bool) -> None:
     click.echo(str(path))
 
 
-def _register_audit() -> None:
-    from ignite.cli.audit import audit
-
-    main.add_command(audit)
-
-
-_register_audit()
+main.add_command(audit)
