@@ -34,14 +34,6 @@ from ignite.wording.numbers import (
     format_si,
 )
 
-ENRICHED_LIMIT_DEFAULT = 0.235
-"""Oxygen-enriched atmosphere above this oxygen fraction (NFPA 99, published).
-
-Used for the chart line and the case table only when `Results` does not carry the
-value in force (`oxygen_enriched_limit_fraction`); rules/oxygen.yaml holds the same
-figure as `oxygen.enriched_limit`.
-"""
-
 SEVERITY_WORDS = {"high": "HIGH", "medium": "MEDIUM", "low": "LOW", "note": "NOTE"}
 SEVERITY_MARKS = {"high": "■■■", "medium": "■■□", "low": "■□□", "note": "□□□"}
 """Severity in words and in a three-step mark: readable in black and white."""
@@ -217,7 +209,7 @@ def build_view(
 ) -> WorksheetView:
     """Everything the worksheet prints, as strings (and chart specifications)."""
     room = results.room
-    enriched = float(getattr(results, "oxygen_enriched_limit_fraction", ENRICHED_LIMIT_DEFAULT))
+    enriched = results.oxygen_enriched_limit_fraction
     findings = tuple(
         _finding_view(number, finding)
         for number, finding in enumerate(_worst_first(results.findings), start=1)
@@ -978,7 +970,7 @@ def _voltage_chart(results: Results) -> Chart | None:
         for index, (voltage, _) in enumerate(energy_lines):
             label = f"lowest site MIE {format_si(mie, 'J')}: {listing}" if index == 0 else ""
             lines.append(RefLine("h", voltage, label))
-    fuel = str(getattr(results, "lowest_site_mie_fuel", ""))
+    fuel = results.lowest_site_mie_fuel
     rh_now = results.environment.relative_humidity_fraction
     lines.append(
         RefLine("v", rh_now * 100, f"room RH {format_si(rh_now, 'fraction')}", kind="event")
