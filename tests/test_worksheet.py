@@ -17,7 +17,7 @@ from pypdf import PdfReader
 from ignite.errors import OutputExistsError
 from ignite.records.results import SEVERITIES, Amount, Finding
 from ignite.report.worksheet import build_view, render_worksheet, write_worksheet
-from ignite.report.worksheet.model import SEVERITY_MARKS, SEVERITY_WORDS
+from ignite.wording.sentences import SEVERITY_MARKS, SEVERITY_WORDS
 
 try:
     from tests import worksheet_fixtures as fx
