@@ -15,16 +15,14 @@ from typing import TYPE_CHECKING, NoReturn
 import click
 
 from ignite import __version__
+from ignite.wording.sentences import CLI_CAUTION
 
 if TYPE_CHECKING:
     from ignite.rules.rulebook import Rulebook
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 LEVELS = ("high", "medium", "low", "note", "never")
-CAUTION = (
-    "The figures support, and never replace, local codes, the manufacturer's instructions "
-    "and licensed professional judgement."
-)
+CAUTION = CLI_CAUTION
 
 rules_option = click.option(
     "--rules",
