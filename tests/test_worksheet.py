@@ -16,8 +16,9 @@ from pypdf import PdfReader
 
 from ignite.errors import OutputExistsError
 from ignite.records.results import SEVERITIES, Amount, Finding
+from ignite.report.text import render_text
 from ignite.report.worksheet import build_view, render_worksheet, write_worksheet
-from ignite.report.worksheet.model import SEVERITY_MARKS, SEVERITY_WORDS
+from ignite.wording.sentences import SEVERITY_MARKS, SEVERITY_WORDS
 
 try:
     from tests import worksheet_fixtures as fx
@@ -350,3 +351,30 @@ def test_finding_amounts_are_formatted_against_each_other() -> None:
     )
     finding = build_view(results, (), (), "").findings[0]
     assert (finding.measured, finding.limit) == ("25.0004 MΩ", "25 MΩ")
+
+
+# --------------------------------------------------------------------------- one wording
+
+
+@pytest.mark.parametrize("which", ["full", "empty"])
+def test_terminal_table_words_things_as_the_worksheet_does(which: str) -> None:
+    """Regression: the text table and the worksheet take the same words from one module."""
+    results = fx.full_results() if which == "full" else fx.empty_results()
+    view = build_view(results, fx.RULES, fx.METHODS, "")
+    lines = render_text(results).splitlines()
+    assert f"Findings: {view.tally}" in lines
+    floor_result = dict(view.floor_summary.rows)["Result"]
+    assert any(line.startswith("Floor (") and line.endswith(f"): {floor_result}") for line in lines)
+    for case in view.cases:
+        assert f"  {case.triad_summary}" in lines
+    headings = [line for line in lines if line.startswith(("  ■", "  □"))]
+    assert [h.split("  ")[1] for h in headings] == [
+        f"{f.severity_mark} {f.severity_word}" for f in view.findings
+    ]
+    for finding in results.findings:
+        assert f"      source: {finding.source} ({finding.flag})" in lines
+    if not results.findings:
+        assert f"  {view.no_findings_text}" in lines
+    # the caution opens with the worksheet's own first sentence
+    first_sentence = view.cautions[0].split(". ")[0] + "."
+    assert f"Caution: {first_sentence}" in render_text(results)

@@ -34,6 +34,7 @@ from ignite.wording.numbers import format_duration, format_si
 
 GENERATION_CURRENT = 0.1e-6  # A
 NO_SPARK = 330.0  # V
+ENRICHED_LIMIT = 0.235  # oxygen fraction above which the air is enriched (NFPA 99, published)
 RH_NOW = 0.28
 # (RH, V) walking on vinyl, the shape of the humidity table the rules carry.
 SATURATION = ((0.10, 12e3), (0.40, 5e3), (0.55, 3e3))
@@ -268,7 +269,7 @@ def _film_curve(tau: float, end: float) -> tuple[tuple[float, float], ...]:
     return tuple((t, math.exp(-t / tau)) for t in (end * i / 80 for i in range(81)))
 
 
-def _washout(c0: float, volume: float, exchange: float, target: float = 0.235) -> float:
+def _washout(c0: float, volume: float, exchange: float, target: float = ENRICHED_LIMIT) -> float:
     if c0 <= target:
         return 0.0
     return volume / exchange * math.log((c0 - 0.209) / (target - 0.209))
@@ -657,7 +658,7 @@ def _case(
         procedure=procedure,
         site=site,
         oxidant_fraction=c_ss,
-        oxygen_enriched=c_ss > 0.235,
+        oxygen_enriched=c_ss > ENRICHED_LIMIT,
         washout_s=washout,
         oxidant_at_activation_fraction=at_activation,
         mie_J=_mie(mie_air, max(at_activation, 0.209)),
@@ -925,7 +926,7 @@ def full_results() -> Results:
             "high",
             "case 1",
             Amount(cases[0].oxidant_at_activation_fraction, "fraction"),
-            Amount(0.235, "fraction"),
+            Amount(ENRICHED_LIMIT, "fraction"),
             "above",
             "NFPA 99",
             "published",
@@ -943,7 +944,7 @@ def full_results() -> Results:
             "high",
             "case 4",
             Amount(cases[3].oxidant_at_activation_fraction, "fraction"),
-            Amount(0.235, "fraction"),
+            Amount(ENRICHED_LIMIT, "fraction"),
             "above",
             "NFPA 99",
             "published",
@@ -1037,6 +1038,7 @@ def full_results() -> Results:
         lowest_site_mie_J=lowest_mie,
         largest_spark_J=largest_spark,
         no_spark_voltage_V=NO_SPARK,
+        oxygen_enriched_limit_fraction=ENRICHED_LIMIT,
         voltage_vs_rh=tuple((c.label, _voltage_curve(c)) for c in (*people, *trolleys)),
     )
 
@@ -1070,6 +1072,8 @@ def empty_results() -> Results:
         trolleys=(),
         preparations=(),
         cases=(),
+        no_spark_voltage_V=NO_SPARK,
+        oxygen_enriched_limit_fraction=ENRICHED_LIMIT,
     )
 
 

@@ -23,13 +23,11 @@ from ignite.records.results import Results
 from ignite.report.text import render_text
 from ignite.room.template import TEMPLATE
 from ignite.rules.rulebook import Rulebook
+from ignite.wording.sentences import CLI_CAUTION
 
 EXIT_CLEAN, EXIT_FINDINGS = 0, 1
 LEVELS = ("high", "medium", "low", "note", "never")
-CAUTION = (
-    "The figures support, and never replace, local codes, the manufacturer's instructions "
-    "and licensed professional judgement."
-)
+CAUTION = CLI_CAUTION
 
 rules_option = click.option(
     "--rules",

@@ -197,8 +197,9 @@ class Results:
     lowest_site_mie_J: float | None = None
     lowest_site_mie_fuel: str = ""  # the fuel (and where) that sets lowest_site_mie_J
     largest_spark_J: float | None = None
-    no_spark_voltage_V: float = 330.0
-    oxygen_enriched_limit_fraction: float = 0.235
+    # thresholds in force, from rules/: required, so a value can never come from here
+    no_spark_voltage_V: float = field(kw_only=True)
+    oxygen_enriched_limit_fraction: float = field(kw_only=True)
     # chart data: per person/trolley label, (RH fraction, body voltage V) at the room's leak path
     voltage_vs_rh: tuple[tuple[str, tuple[tuple[float, float], ...]], ...] = ()
 

@@ -18,11 +18,11 @@ from pathlib import Path
 from typing import Any
 
 from ignite.errors import Problem, RuleFileError, UnitError
+from ignite.records.results import SEVERITIES
 from ignite.room.source import load_yaml
 from ignite.room.units import parse_any, parse_quantity
 
 FLAGS = ("published", "memory", "common practice", "assumption")
-SEVERITIES = ("high", "medium", "low", "note")
 TESTS = ("above", "at-or-above", "below", "at-or-below", "is-true")
 WINDOW_LIMITS = ("low", "high", "mean_low", "system_high", "walking_voltage_high")
 

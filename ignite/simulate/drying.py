@@ -142,7 +142,7 @@ def _open_phase(model: FilmModel, dry_fraction: float, horizon: float) -> _Solut
     def dry(_t: float, state: Sequence[float]) -> float:
         return model.flammable_left(state) - dry_fraction
 
-    return solve_ivp(
+    solution: _Solution = solve_ivp(
         model.rhs(covered=False),
         (0.0, horizon),
         model.initial,
@@ -153,6 +153,7 @@ def _open_phase(model: FilmModel, dry_fraction: float, horizon: float) -> _Solut
         atol=_tolerances(model, covered=False),
         max_step=_max_step(model),
     )
+    return solution
 
 
 def _covered_phase(
@@ -197,7 +198,7 @@ def _covered_phase(
     def dry(_t: float, state: Sequence[float]) -> float:
         return model.flammable_left(state[:npc]) - dry_fraction
 
-    return solve_ivp(
+    solution: _Solution = solve_ivp(
         model.rhs(covered=True),
         (start, max(horizon, start + 1.0)),
         state0,
@@ -208,6 +209,7 @@ def _covered_phase(
         atol=_tolerances(model, covered=True),
         max_step=_max_step(model),
     )
+    return solution
 
 
 def _samples(start: float, end: float, count: int, extra: Sequence[float]) -> list[float]:

@@ -7,11 +7,680 @@ the same thing is said the same way everywhere.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 
+from ignite.records.results import SEVERITIES
 from ignite.wording.numbers import format_duration, format_si
 
 # --- cautions, labels and verdicts (report) ------------------------------------------
+# The terminal table (report/text.py), the worksheet's view model and renderer
+# (report/worksheet/) and the CLI's caution read these; where the table and the
+# worksheet say the same thing, they say it with the same words.
+
+SEVERITY_WORDS = dict(zip(SEVERITIES, ("HIGH", "MEDIUM", "LOW", "NOTE"), strict=True))
+SEVERITY_MARKS = dict(zip(SEVERITIES, ("■■■", "■■□", "■□□", "□□□"), strict=True))
+"""Severity in words and in a three-step mark: readable in black and white."""
+
+TICK_BOX = "☐"
+PRESENT_MARK, ABSENT_MARK = "●", "○"
+PRESENT, ABSENT = "present", "absent"
+NONE = "none"
+NONE_LISTED = "none listed"
+NONE_FOUND = "none found"
+EMPTY_FILE = "(empty)"
+
+
+def severity_word(severity: str) -> str:
+    """ "HIGH" for `high`; an unknown severity in capitals."""
+    return SEVERITY_WORDS.get(severity, severity.upper())
+
+
+def severity_mark(severity: str) -> str:
+    """ "■■■" for `high`; "?" for an unknown severity."""
+    return SEVERITY_MARKS.get(severity, "?")
+
+
+def severity_label(severity: str) -> str:
+    """Mark and word: "■■■ HIGH"."""
+    return f"{severity_mark(severity)} {severity_word(severity)}"
+
+
+def severity_key() -> str:
+    """What the marks mean: "■■■ high, ■■□ medium, ■□□ low, □□□ note"."""
+    return ", ".join(f"{SEVERITY_MARKS[s]} {s}" for s in SEVERITIES)
+
+
+def _plural(count: int, word: str, plural: str | None = None) -> str:
+    return f"{count} {word if count == 1 else (plural or word + 's')}"
+
+
+def findings_tally(counts: Mapping[str, int]) -> str:
+    """Every severity with its mark and count, worst first, zeros included."""
+    return " · ".join(f"{SEVERITY_MARKS[s]} {counts.get(s, 0)} {s}" for s in SEVERITIES)
+
+
+def verdict(counts: Mapping[str, int]) -> str:
+    """The overall verdict in one line, from the number of findings of each severity."""
+    high, medium, low, note = (counts.get(s, 0) for s in SEVERITIES)
+    if high:
+        them = "it is" if high == 1 else "they are"
+        return f"{_plural(high, 'high finding')}: do not start the list until {them} addressed."
+    if medium:
+        them = "it" if medium == 1 else "them"
+        return (
+            f"No high findings; {_plural(medium, 'medium finding')}: address {them} before "
+            f"the list, or record who accepted {them} and why."
+        )
+    if low:
+        return f"No findings above low; {_plural(low, 'low finding')} to review with the team."
+    if note:
+        return f"No findings at or above low; {_plural(note, 'note')} for information."
+    return "No findings at or above low."
+
+
+NO_FINDINGS = "No rule gave a finding for this room and list."
+NO_CASES = "No cases on the list: this is an assessment of the room alone."
+
+
+def source_with_flag(source: str, flag: str) -> str:
+    """A rule's source and its provenance flag: "NFPA 99 (published)"."""
+    return f"{source} ({flag})"
+
+
+# cautions: every output carries them (README, CLI, worksheet)
+CAUTION_FIGURES = (
+    "These figures support, and never replace, local codes, the manufacturer's instructions "
+    "for every device and preparation, and licensed professional judgement."
+)
+CAUTION_LABEL_MINIMUM = (
+    "Label drying times remain the minimum: at least 3 min on hairless skin and up to 1 h "
+    "in hair for alcohol-based preparations (published, product labels)."
+)
+CAUTIONS = (
+    CAUTION_FIGURES + " The people who sign this worksheet remain responsible for the "
+    "decision to start the list.",
+    CAUTION_LABEL_MINIMUM + " A computed drying time shorter than the label never shortens "
+    "the wait; a longer one lengthens it.",
+    "Skin-model trials found prep visibly dry after about 40 to 60 s, yet fires still "
+    "occurred after 3 min in some of them (published, Jones et al. 2017; Ryan et al. 2020): "
+    "a computed time is a floor, never a licence.",
+    "Never drape over pooled preparation; remove soaked linen and pads before draping "
+    "(common practice).",
+    "MIE is the least energy over all mixtures, at a 50 % ignition probability: a margin "
+    "above it is not proof of safety. The drape pocket is treated as well mixed; real "
+    "pockets have richer corners near the oxygen outlet.",
+)
+"""The worksheet's cautions, one paragraph each."""
+
+TEXT_CAUTION = f"Caution: {CAUTION_FIGURES} {CAUTION_LABEL_MINIMUM}"
+"""The caution under the terminal table: the worksheet's first words on both."""
+
+CLI_CAUTION = (
+    "The figures support, and never replace, local codes, the manufacturer's instructions "
+    "and licensed professional judgement."
+)
+"""The CLI's caution (its help, its messages, and the JSON record's `caution` key)."""
+
+# the worksheet: title, header, sections
+WORKSHEET_HEADING = "Fire and static-ignition worksheet"
+
+
+def tool_label(version: str) -> str:
+    return f"ignite {version}"
+
+
+def worksheet_title(room_id: str) -> str:
+    """The PDF's title in its metadata."""
+    return f"ignite worksheet — {room_id}"
+
+
+def worksheet_subheading(room_name: str, room_id: str) -> str:
+    return f"{room_name} — room {room_id}"
+
+
+def worksheet_subject(room_name: str, input_sha256: str) -> str:
+    """The PDF's subject in its metadata."""
+    return f"{room_name}; input SHA-256 {input_sha256}"
+
+
+HEADER_ROOM = "Room"
+HEADER_SITE = "Site"
+HEADER_PURPOSE = "Purpose"
+HEADER_ASSESSED_ON = "Assessed on"
+HEADER_ASSESSOR = "Assessor"
+HEADER_ROOM_FILE = "Room file"
+HEADER_TOOL = "Tool"
+OVERALL = "Overall"
+WARNINGS_INTRO = "The room file was accepted with these warnings:"
+
+SECTION_FINDINGS = "1  Findings, worst first"
+SECTION_CASES = "2  Cases on the list"
+SECTION_ROOM = "3  The room"
+SECTION_CAUTIONS = "4  Cautions"
+SECTION_SIGN_OFF = "5  Sign-off"
+HEADING_FLOOR_AND_SHOCK = "Floor and shock current"
+HEADING_PEOPLE_AND_TROLLEYS = "People and trolleys"
+HEADING_PREPARATIONS = "Preparations stocked"
+APPENDIX_RULES = "Appendix A  Rules evaluated"
+APPENDIX_RULES_INTRO = (
+    "Every check and parameter in force, and the windows, tables, footwear classes, fuels, "
+    "materials, ignition sources and sites this room uses, each with its threshold, source "
+    "and provenance flag. `ignite rules` lists the rest; the rules SHA-256 in the footer "
+    "covers them all."
+)
+APPENDIX_METHODS = "Appendix B  Methods"
+APPENDIX_ROOM_FILE = "Appendix C  The room file as read"
+
+
+def room_file_caption(input_name: str, input_sha256: str) -> str:
+    return f"{input_name} — SHA-256 {input_sha256}"
+
+
+# the page footer
+def footer_room(room_id: str) -> str:
+    return f"Room {room_id}"
+
+
+def footer_page(number: int, total: int) -> str:
+    return f"Page {number} of {total}"
+
+
+def footer_input(input_sha256: str) -> str:
+    return f"Input SHA-256  {input_sha256}"
+
+
+def footer_rules(rules_digest: str) -> str:
+    return f"Rules SHA-256  {rules_digest}"
+
+
+# findings
+SEVERITY_KEY_NOTE = (
+    f"Severity is printed in words and as a mark ({severity_key()}). "
+    "Tick each mitigation when it is in place."
+)
+CARD_RULE = "Rule"
+CARD_SUBJECT = "Subject"
+CARD_MEASURED = "Measured"
+CARD_LIMIT = "Limit"
+CARD_WHY = "Why"
+CARD_SOURCE = "Source"
+CARD_MITIGATIONS = "Mitigations"
+
+
+def finding_heading(number: int, mark: str, word: str, title: str) -> str:
+    """ "1. ■■■ HIGH — title": the head of a finding's card."""
+    return f"{number}. {mark} {word} — {title}"
+
+
+def limit_with_comparison(limit: str, comparison: str) -> str:
+    return f"{limit} (measured is {comparison} the limit)"
+
+
+def measured_against_limit(measured: str, comparison: str, limit: str) -> str:
+    """One line of the terminal table: "measured 37.1 %, above the limit 23.5 %"."""
+    return f"measured {measured}, {comparison} the limit {limit}"
+
+
+# cases: the fire triad
+TRIAD_OXIDANT = "Oxidant"
+TRIAD_FUEL = "Fuel"
+TRIAD_IGNITION = "Ignition source"
+
+
+def presence(present: bool) -> str:
+    return PRESENT if present else ABSENT
+
+
+def triad_element(present: bool, name: str) -> str:
+    """ "● Oxidant: present"."""
+    return f"{PRESENT_MARK if present else ABSENT_MARK} {name}: {presence(present)}"
+
+
+def triad_summary(oxidant: bool, fuel: bool, ignition: bool) -> str:
+    """The fire triad of a case in one sentence."""
+    if oxidant and fuel and ignition:
+        return "Fire triad complete: oxidant, fuel and ignition source can meet at the site."
+    missing = [
+        name
+        for name, present in (
+            ("oxidant", oxidant),
+            ("fuel", fuel),
+            ("ignition source", ignition),
+        )
+        if not present
+    ]
+    return f"Fire triad incomplete as planned: no {' and no '.join(missing)} at the site."
+
+
+def triad_oxidant_why(while_flowing: str, at_activation: str, enriched_limit: str) -> str:
+    return (
+        f"{while_flowing} while oxygen flows, {at_activation} at activation; "
+        f"enriched means above {enriched_limit}"
+    )
+
+
+def prep_dries_in(duration: str) -> str:
+    return f"prep dries in {duration}"
+
+
+def materials_keep_burning(names: str) -> str:
+    return f"materials that keep burning: {names}"
+
+
+def case_heading(case_id: str, procedure: str) -> str:
+    return f"Case {case_id}: {procedure}"
+
+
+def names_or_none(names: Sequence[str]) -> str:
+    return ", ".join(names) if names else NONE
+
+
+ON_THIS_CASE = "On this case"
+CASE_SITE = "Site"
+CASE_MATERIALS_BURNING = "Materials that would keep burning"
+CASE_MATERIALS_CHARGE = "Materials holding charge at this RH"
+CASE_IGNITION_SOURCES = "Ignition sources"
+CASE_TABLE_HEADERS = ("Quantity", "Value", "Compared with", "Reading")
+
+# cases: the quantities table (label, comparison and reading of each row)
+OXIDANT_WHILE_FLOWING = "Oxidant at the site while oxygen flows"
+OXIDANT_AT_ACTIVATION = "Oxidant at the site at first activation"
+ENRICHED, NOT_ENRICHED = "enriched", "not enriched"
+STOP_PLANNED = "Oxygen stopped before activation (planned)"
+STOP_SHORT, STOP_LONG_ENOUGH = "shorter than needed", "long enough"
+DRYING_TIME = "Prep drying time (flammable part gone)"
+WET_AT_ACTIVATION, DRY_BY_ACTIVATION = "still wet at activation", "dry by activation"
+POCKET_PEAK = "Peak vapour in the drape pocket"
+DRAPES_PLANNED = "Drapes on after the end of prep (planned)"
+POCKET_TOO_EARLY, POCKET_LATE_ENOUGH = "too early for the pocket", "late enough for the pocket"
+SAFE_DRAPING_AFTER = "Draping that keeps the pocket below the vapour margin, after"
+ACTIVATION_PLANNED = "First activation after the end of prep (planned)"
+SPARK_CAN_IGNITE, SPARK_BELOW_MIE = "spark can ignite", "spark below the MIE"
+
+
+def enriched_above(limit: str) -> str:
+    return f"enriched above {limit}"
+
+
+def buildup_to(limit: str) -> str:
+    return f"Time to reach {limit} after oxygen starts"
+
+
+def washout_to(limit: str) -> str:
+    return f"Washout to {limit} after oxygen stops"
+
+
+def needed(duration: str) -> str:
+    return f"needed {duration}"
+
+
+def first_activation_at(duration: str) -> str:
+    return f"first activation at {duration}"
+
+
+def of_lfl(fraction: str) -> str:
+    return f"{fraction} of LFL"
+
+
+def pocket_safe_if_after(duration: str) -> str:
+    return f"pocket below the vapour margin if after {duration}"
+
+
+def mie_at_activation(fuel: str) -> str:
+    """The MIE row's label; `fuel` may be ""."""
+    return "MIE at the site at activation" + (f" ({fuel})" if fuel else "")
+
+
+def largest_static_spark(energy: str) -> str:
+    return f"largest static spark {energy}"
+
+
+# the room: floor, shock, people and trolleys, preparations, environment
+def window_text(low: float | None, high: float | None) -> str:
+    """A floor's resistance window: "50 kΩ to 25 MΩ", "up to 1 MΩ", "no limits"."""
+    if low is None and high is None:
+        return "no limits"
+    if low is None:
+        return f"up to {format_si(high, 'Ω')}"
+    if high is None:
+        return f"above {format_si(low, 'Ω')}"
+    return f"{format_si(low, 'Ω')} to {format_si(high, 'Ω')}"
+
+
+def floor_window(criteria: str, low: float | None, high: float | None) -> str:
+    return f"{criteria}: {window_text(low, high)}"
+
+
+def floor_result(passed: bool, outside: int, readings: int) -> str:
+    """The floor's verdict: "every reading within the window", "2 of 5 readings outside..."."""
+    if passed:
+        return "every reading within the window"
+    if outside:
+        return f"{outside} of {readings} readings outside the window"
+    return "outside the window"
+
+
+FLOOR = "Floor"
+FLOOR_WINDOW = "Window"
+FLOOR_TEST_VOLTAGE = "Test voltage"
+FLOOR_READINGS = "Readings, point to ground"
+FLOOR_LOWEST = "Lowest (worst for shock)"
+FLOOR_HIGHEST = "Highest (worst for static)"
+FLOOR_MEAN = "Mean"
+FLOOR_GEOMETRIC_MEAN = "Geometric mean"
+FLOOR_RESULT = "Result"
+FLOOR_POINT_TO_POINT = "Point to point"
+READINGS_HEADERS = ("#", "Reading", "Against the window")
+NO_READINGS = "No floor readings."
+WITHIN = "within"
+WITHIN_WINDOW, OUTSIDE_WINDOW = "within the window", "outside the window"
+
+
+def reading_outside(below: bool, limit: str) -> str:
+    return f"outside: below {limit}" if below else f"outside: above {limit}"
+
+
+SHOCK = "Shock"
+SHOCK_SUPPLY = "Supply system"
+SHOCK_TOUCH_VOLTAGE = "Touch voltage"
+SHOCK_LOWEST_READING = "Lowest floor reading"
+SHOCK_BODY = "Body impedance (IEC 60479-1)"
+SHOCK_PATH = "Shock path: floor + body, no footwear credit"
+SHOCK_CURRENT = "Shock current (Ohm's law)"
+
+CHARGES_HEADERS = (
+    "Who",
+    "Kind",
+    "Footwear",
+    "Leak path",
+    "C",
+    "τ = RC",
+    "Voltage",
+    "Charge",
+    "Spark energy",
+    "Settle time",
+)
+NO_CHARGES = "No people or trolleys described."
+SATURATION_MARK = " †"
+
+
+def who(label: str, count: int) -> str:
+    return label if count == 1 else f"{label} ×{count}"
+
+
+def no_spark_below(voltage_V: float) -> str:
+    """The no-spark line on the voltage chart."""
+    return f"no spark below {format_si(voltage_V, 'V')}"
+
+
+def charges_note(no_spark_voltage_V: float) -> str:
+    return (
+        "† capped by the humidity-limited saturation voltage of the floor surface; "
+        "otherwise set by the charge generation current times the leak path. "
+        f"Settle time: standing still, until below the no-spark voltage "
+        f"({format_si(no_spark_voltage_V, 'V')})."
+    )
+
+
+PREPARATIONS_HEADERS = (
+    "Preparation",
+    "Liquid, mole fraction (UNIFAC γ)",
+    "Flash point",
+    "LFL",
+    "Saturated vapour",
+    "Film temperature",
+)
+NO_PREPARATIONS = "No flammable preparations stocked."
+NO_FLASH_POINT = NONE
+
+
+def preparation_label(label: str, prep_id: str) -> str:
+    return f"{label} [{prep_id}]"
+
+
+def component_text(name: str, mole_fraction: str, gamma: str) -> str:
+    return f"{name} {mole_fraction} (γ {gamma})"
+
+
+def preparation_methods(prep_id: str, methods: Sequence[str]) -> str:
+    return f"{prep_id}: methods: " + "; ".join(methods) + "."
+
+
+def preparation_note(prep_id: str, note: str) -> str:
+    return f"{prep_id}: {note}"
+
+
+ENVIRONMENT = "Environment"
+ENV_TEMPERATURE = "Temperature"
+ENV_RH = "Relative humidity"
+ENV_AIR_CHANGES = "Air changes"
+ENV_VOLUME = "Room volume"
+ENV_MAINS = "Mains"
+ENV_ROOM_RISE = "Whole-room oxidant rise from open delivery"
+
+# sign-off
+SIGN_OFF_ROLES = ("Prepared by", "Reviewed by")
+SIGN_OFF_DECISIONS = (
+    "Start the list as planned",
+    "Start the list once the ticked mitigations are in place",
+    "Do not start the list",
+)
+SIGN_OFF_PROMPT = "Decision for the list (tick one):"
+SIGN_OFF_HEADERS = ("", "Name", "Signature", "Date")
+
+# appendices
+RULES_HEADERS = ("Rule\nkind", "Title", "Threshold", "Source", "Flag")
+NO_RULES = "No rules were listed for this run."
+METHODS_HEADERS = ("Method", "Published reference")
+NO_METHODS = "No methods were listed for this run."
+
+# charts
+FLOOR_CHART_AXIS_Y = "point to ground"
+FLOOR_CHART_AXIS_X = "reading number"
+FLOOR_CHART_CAPTION = (
+    "Logarithmic scale. Shock checks use the lowest reading, static checks the highest."
+)
+
+
+def floor_chart_title(criteria: str) -> str:
+    return f"Floor readings against the {criteria} window"
+
+
+def lower_limit(ohm: float) -> str:
+    return f"lower limit {format_si(ohm, 'Ω')}"
+
+
+def upper_limit(ohm: float) -> str:
+    return f"upper limit {format_si(ohm, 'Ω')}"
+
+
+VOLTAGE_CHART_TITLE = "Body voltage against relative humidity"
+VOLTAGE_CHART_AXIS_X = "relative humidity [%]"
+VOLTAGE_CHART_AXIS_Y = "voltage"
+
+
+def site_mie_line(mie_J: float, listing: str) -> str:
+    return f"lowest site MIE {format_si(mie_J, 'J')}: {listing}"
+
+
+def voltage_at_capacitance(voltage_V: float, capacitance_F: float) -> str:
+    return f"{format_si(voltage_V, 'V')} at {format_si(capacitance_F, 'F')}"
+
+
+def room_rh(fraction: float) -> str:
+    return f"room RH {format_si(fraction, 'fraction')}"
+
+
+def voltage_chart_caption(fuel: str) -> str:
+    return (
+        "Each person or trolley on the room's leak path, walking or pushed. A spark needs "
+        "more than the no-spark voltage; above a site-MIE line (one per capacitance) it "
+        "can ignite the most easily ignited fuel at a site" + (f": {fuel}." if fuel else ".")
+    )
+
+
+def oxygen_chart_title(case_id: str) -> str:
+    return f"Case {case_id}: oxidant at the site after oxygen stops"
+
+
+def oxygen_chart_axis_x(unit: str) -> str:
+    return f"time after oxygen stops [{unit}]"
+
+
+OXYGEN_CHART_AXIS_Y = "oxidant [%]"
+OXYGEN_CHART_SERIES = "oxidant at the site"
+EVENT_FIRST_ACTIVATION = "first activation"
+EVENT_DRAPES_ON = "drapes on"
+
+
+def film_chart_title(case_id: str) -> str:
+    return f"Case {case_id}: flammable liquid left on the skin"
+
+
+def film_chart_axis_x(unit: str) -> str:
+    return f"time after the end of prep [{unit}]"
+
+
+FILM_CHART_AXIS_Y = "of the flammable liquid applied [%]"
+FILM_CHART_SERIES = "flammable liquid left"
+
+# the terminal table (`ignite check`): its own compact lines, the shared words above
+TEXT_PEOPLE, TEXT_TROLLEYS = "People", "Trolleys"
+TEXT_ROLE, TEXT_NAME = "role", "name"
+TEXT_CHARGES_HEADERS = (
+    "n",
+    "footwear",
+    "leak path",
+    "C",
+    "τ",
+    "voltage",
+    "charge",
+    "spark",
+    "settle",
+)
+"""The charge table's columns after the first (`TEXT_ROLE` or `TEXT_NAME`)."""
+TEXT_PREPARATIONS_HEADERS = ("id", "flash point", "LFL", "saturated vapour", "film at")
+TEXT_WARNINGS = "Warnings:"
+TEXT_OUTSIDE_MARK = "*"
+TEXT_NO_FUEL = "no fuel"
+
+
+def text_room(name: str, room_id: str, purpose: str, assessed_on: str, assessor: str) -> str:
+    return f"{name} ({room_id}): {purpose}, {assessed_on}, {assessor}"
+
+
+def text_input(input_name: str, input_sha256: str, version: str) -> str:
+    return f"Input {input_name}  sha256 {input_sha256[:16]}…  {tool_label(version)}"
+
+
+def text_environment(
+    temperature_K: float,
+    rh_fraction: float,
+    air_changes_per_s: float,
+    volume_m3: float,
+    mains_V: float,
+    mains_Hz: float,
+    mains_system: str,
+) -> str:
+    return (
+        f"Environment: {format_si(temperature_K, 'K')}, RH {format_si(rh_fraction, 'fraction')}, "
+        f"{air_changes_per_s * 3600:.3g} air changes/h, {volume_m3:.3g} m³; "
+        f"mains {format_si(mains_V, 'V')} {mains_Hz:.0f} Hz {mains_system}"
+    )
+
+
+def text_floor(
+    criteria: str,
+    low: float | None,
+    high: float | None,
+    passed: bool,
+    outside: int,
+    readings: int,
+) -> str:
+    return f"Floor ({floor_window(criteria, low, high)}): {floor_result(passed, outside, readings)}"
+
+
+def text_readings(readings: Sequence[str], any_outside: bool) -> str:
+    """The readings line; those outside the window already carry `TEXT_OUTSIDE_MARK`."""
+    return (
+        "readings "
+        + "  ".join(readings)
+        + (f"   ({TEXT_OUTSIDE_MARK} outside)" if any_outside else "")
+    )
+
+
+def text_floor_statistics(low: float, high: float, mean: float, geometric_mean: float) -> str:
+    return (
+        f"lowest {format_si(low, 'Ω')}  highest {format_si(high, 'Ω')}  "
+        f"mean {format_si(mean, 'Ω')}  geometric mean {format_si(geometric_mean, 'Ω')}"
+    )
+
+
+def text_shock(touch_V: float, path_ohm: float, body_ohm: float, current_A: float) -> str:
+    return (
+        f"shock: {format_si(touch_V, 'V')} across {format_si(path_ohm, 'Ω')} "
+        f"(lowest reading + body {format_si(body_ohm, 'Ω')}) -> {format_si(current_A, 'A')}"
+    )
+
+
+def text_lowest_mie(mie_J: float | None, fuel: str) -> str:
+    return f"Lowest MIE in the room: {format_si(mie_J, 'J')} ({fuel})"
+
+
+def text_case_heading(case_id: str, procedure: str, site: str) -> str:
+    return f"{case_heading(case_id, procedure)} ({site})"
+
+
+def text_case_oxygen(
+    at_site: float, at_activation: float, washout_s: float, stop_before_s: float | None
+) -> str:
+    return (
+        f"oxidant at the site {format_si(at_site, 'fraction')}, at activation "
+        f"{format_si(at_activation, 'fraction')}; washout to the enriched limit "
+        f"{format_duration(washout_s)} (stop planned {format_duration(stop_before_s)} before)"
+    )
+
+
+def text_case_mie(mie_J: float | None, fuel: str, largest_spark_J: float | None) -> str:
+    return (
+        f"MIE at the site {format_si(mie_J, 'J')} ({fuel or TEXT_NO_FUEL}); "
+        f"largest spark in the room {format_si(largest_spark_J, 'J')}"
+    )
+
+
+def text_prep_not_flammable(prep_id: str) -> str:
+    return f"prep {prep_id}: no flammable component"
+
+
+def text_prep_drying(
+    drying_s: float | None,
+    draping_s: float | None,
+    activation_s: float | None,
+    pocket_peak_of_lfl: float | None,
+    safe_draping_s: float | None,
+) -> str:
+    return (
+        f"prep dries in {format_duration(drying_s)}; drapes at "
+        f"{format_duration(draping_s)}, first activation at {format_duration(activation_s)}; "
+        f"pocket peak {format_si(pocket_peak_of_lfl, 'fraction')} of LFL; "
+        f"safe to drape after {format_duration(safe_draping_s)}"
+    )
+
+
+def text_findings(counts: Mapping[str, int]) -> str:
+    return f"Findings: {findings_tally(counts)}"
+
+
+def text_finding_heading(severity: str, rule: str, subject: str) -> str:
+    return f"{severity_label(severity)}  {rule}  ({subject})"
+
+
+def text_source(source: str, flag: str) -> str:
+    return f"source: {source_with_flag(source, flag)}"
+
+
+def text_mitigation(mitigation: str) -> str:
+    return f"-> {mitigation}"
 
 
 # --- notes of the preparations, drying and the drape pocket (simulate) ----------------

@@ -3,8 +3,9 @@
 `build_view` turns `Results` (plus the rules and methods appendix rows and the room
 file's text) into a `WorksheetView` of strings, small tables and chart specifications.
 All rounding happens here, through `ignite.wording.numbers`: a value compared with a limit
-is printed with `format_against_limit`, so it never rounds across the limit. The
-renderer (`ignite.report.worksheet.pdf`) only lays these strings out.
+is printed with `format_against_limit`, so it never rounds across the limit. Every word
+comes from `ignite.wording.sentences`, as the terminal table's do. The renderer
+(`ignite.report.worksheet.pdf`) only lays these strings out.
 
 Charts carry numbers (in the units their axes are labelled in) because they must be
 drawn; their axes, tick labels and line labels are decided here too.
@@ -27,51 +28,13 @@ from ignite.records.results import (
     RuleRow,
     severity_rank,
 )
+from ignite.wording import sentences as say
 from ignite.wording.numbers import (
     NO_VALUE,
     format_against_limit,
     format_duration,
     format_si,
 )
-
-ENRICHED_LIMIT_DEFAULT = 0.235
-"""Oxygen-enriched atmosphere above this oxygen fraction (NFPA 99, published).
-
-Used for the chart line and the case table only when `Results` does not carry the
-value in force (`oxygen_enriched_limit_fraction`); rules/oxygen.yaml holds the same
-figure as `oxygen.enriched_limit`.
-"""
-
-SEVERITY_WORDS = {"high": "HIGH", "medium": "MEDIUM", "low": "LOW", "note": "NOTE"}
-SEVERITY_MARKS = {"high": "■■■", "medium": "■■□", "low": "■□□", "note": "□□□"}
-"""Severity in words and in a three-step mark: readable in black and white."""
-
-TICK_BOX = "☐"
-
-CAUTIONS = (
-    "These figures support, and never replace, local codes, the manufacturer's instructions "
-    "for every device and preparation, and licensed professional judgement. The people "
-    "who sign this worksheet remain responsible for the decision to start the list.",
-    "Label drying times remain the minimum: at least 3 min on hairless skin and up to 1 h "
-    "in hair for alcohol-based preparations (published, product labels). A computed drying "
-    "time shorter than the label never shortens the wait; a longer one lengthens it.",
-    "Skin-model trials found prep visibly dry after about 40 to 60 s, yet fires still "
-    "occurred after 3 min in some of them (published, Jones et al. 2017; Ryan et al. 2020): "
-    "a computed time is a floor, never a licence.",
-    "Never drape over pooled preparation; remove soaked linen and pads before draping "
-    "(common practice).",
-    "MIE is the least energy over all mixtures, at a 50 % ignition probability: a margin "
-    "above it is not proof of safety. The drape pocket is treated as well mixed; real "
-    "pockets have richer corners near the oxygen outlet.",
-)
-
-SIGN_OFF_ROLES = ("Prepared by", "Reviewed by")
-SIGN_OFF_DECISIONS = (
-    "Start the list as planned",
-    "Start the list once the ticked mitigations are in place",
-    "Do not start the list",
-)
-
 
 # --------------------------------------------------------------------------- views
 
@@ -217,7 +180,7 @@ def build_view(
 ) -> WorksheetView:
     """Everything the worksheet prints, as strings (and chart specifications)."""
     room = results.room
-    enriched = float(getattr(results, "oxygen_enriched_limit_fraction", ENRICHED_LIMIT_DEFAULT))
+    enriched = results.oxygen_enriched_limit_fraction
     findings = tuple(
         _finding_view(number, finding)
         for number, finding in enumerate(_worst_first(results.findings), start=1)
@@ -225,29 +188,29 @@ def build_view(
     verdict, worst = _verdict(results.findings)
     people_and_trolleys = (*results.people, *results.trolleys)
     return WorksheetView(
-        title=f"ignite worksheet — {room.id}",
-        heading="Fire and static-ignition worksheet",
-        subheading=f"{room.name} — room {room.id}",
+        title=say.worksheet_title(room.id),
+        heading=say.WORKSHEET_HEADING,
+        subheading=say.worksheet_subheading(room.name, room.id),
         author=room.assessor,
-        subject=f"{room.name}; input SHA-256 {results.input_sha256}",
+        subject=say.worksheet_subject(room.name, results.input_sha256),
         creation_date=_iso_date(room.assessed_on),
         header=(
-            ("Room", room.id),
-            ("Site", room.name),
-            ("Purpose", room.purpose),
-            ("Assessed on", room.assessed_on),
-            ("Assessor", room.assessor),
-            ("Room file", results.input_name),
-            ("Tool", f"ignite {results.tool_version}"),
+            (say.HEADER_ROOM, room.id),
+            (say.HEADER_SITE, room.name),
+            (say.HEADER_PURPOSE, room.purpose),
+            (say.HEADER_ASSESSED_ON, room.assessed_on),
+            (say.HEADER_ASSESSOR, room.assessor),
+            (say.HEADER_ROOM_FILE, results.input_name),
+            (say.HEADER_TOOL, say.tool_label(results.tool_version)),
         ),
         verdict=verdict,
         verdict_severity=worst,
         tally=_tally(results.findings),
         warnings=tuple(results.warnings),
         findings=findings,
-        no_findings_text="No rule gave a finding for this room and list.",
+        no_findings_text=say.NO_FINDINGS,
         cases=tuple(_case_view(case, results, enriched) for case in results.cases),
-        no_cases_text="No cases on the list: this is an assessment of the room alone.",
+        no_cases_text=say.NO_CASES,
         floor_summary=_floor_summary(results),
         floor_readings=_floor_readings(results),
         floor_chart=_floor_chart(results),
@@ -256,32 +219,27 @@ def build_view(
         charges=_charges_table(
             people_and_trolleys, results.no_spark_voltage_V, results.lowest_site_mie_J
         ),
-        charges_note=(
-            "† capped by the humidity-limited saturation voltage of the floor surface; "
-            "otherwise set by the charge generation current times the leak path. "
-            f"Settle time: standing still, until below the no-spark voltage "
-            f"({format_si(results.no_spark_voltage_V, 'V')})."
-        ),
+        charges_note=say.charges_note(results.no_spark_voltage_V),
         voltage_chart=_voltage_chart(results),
         preparations=_preparations_table(results.preparations),
         preparation_notes=_preparation_notes(results.preparations),
         environment=_environment_table(results),
-        cautions=CAUTIONS,
-        sign_off_roles=SIGN_OFF_ROLES,
-        sign_off_decisions=SIGN_OFF_DECISIONS,
+        cautions=say.CAUTIONS,
+        sign_off_roles=say.SIGN_OFF_ROLES,
+        sign_off_decisions=say.SIGN_OFF_DECISIONS,
         rules=Table(
-            headers=("Rule\nkind", "Title", "Threshold", "Source", "Flag"),
+            headers=say.RULES_HEADERS,
             rows=tuple(
                 (f"{r.id}\n{r.kind}", r.title, r.threshold, r.source, r.flag) for r in rules
             ),
             widths=(2.3, 2.3, 1.6, 2.2, 1.0),
-            empty_text="No rules were listed for this run.",
+            empty_text=say.NO_RULES,
         ),
         methods=Table(
-            headers=("Method", "Published reference"),
+            headers=say.METHODS_HEADERS,
             rows=tuple((m.name, m.reference) for m in methods),
             widths=(1.0, 1.6),
-            empty_text="No methods were listed for this run.",
+            empty_text=say.NO_METHODS,
         ),
         input_name=results.input_name,
         input_lines=tuple(line.expandtabs(4) for line in input_text.splitlines()),
@@ -303,10 +261,6 @@ def _iso_date(text: str) -> str | None:
         return None
 
 
-def _plural(count: int, word: str, plural: str | None = None) -> str:
-    return f"{count} {word if count == 1 else (plural or word + 's')}"
-
-
 # --------------------------------------------------------------------------- findings
 
 
@@ -320,38 +274,14 @@ def _counts(findings: Sequence[Finding]) -> dict[str, int]:
 
 
 def _tally(findings: Sequence[Finding]) -> str:
-    counts = _counts(findings)
-    return " · ".join(f"{SEVERITY_MARKS[s]} {counts[s]} {s}" for s in SEVERITIES)
+    return say.findings_tally(_counts(findings))
 
 
 def _verdict(findings: Sequence[Finding]) -> tuple[str, str | None]:
     """One line in words, and the worst severity (None when there are no findings)."""
     counts = _counts(findings)
-    high, medium, low, note = (counts[s] for s in SEVERITIES)
-    if high:
-        them = "it is" if high == 1 else "they are"
-        return (
-            f"{_plural(high, 'high finding')}: do not start the list until {them} addressed.",
-            "high",
-        )
-    if medium:
-        them = "it" if medium == 1 else "them"
-        return (
-            f"No high findings; {_plural(medium, 'medium finding')}: address {them} before "
-            f"the list, or record who accepted {them} and why.",
-            "medium",
-        )
-    if low:
-        return (
-            f"No findings above low; {_plural(low, 'low finding')} to review with the team.",
-            "low",
-        )
-    if note:
-        return (
-            f"No findings at or above low; {_plural(note, 'note')} for information.",
-            "note",
-        )
-    return "No findings at or above low.", None
+    worst = next((s for s in SEVERITIES if counts[s]), None)
+    return say.verdict(counts), worst
 
 
 def _amounts(finding: Finding) -> tuple[str, str]:
@@ -360,7 +290,7 @@ def _amounts(finding: Finding) -> tuple[str, str]:
     if limit.value is None and measured.unit in ("", "1") and measured.value in (0.0, 1.0):
         # a finding about presence (fire triad, a material that burns): 1 = present, 0 = absent
         present = measured.value == 1.0
-        return (finding.comparison or "present") if present else "absent", ""
+        return (finding.comparison or say.PRESENT) if present else say.ABSENT, ""
     if limit.value is None:
         return format_si(measured.value, measured.unit), ""
     if (
@@ -378,8 +308,8 @@ def _finding_view(number: int, finding: Finding) -> FindingView:
     return FindingView(
         number=number,
         severity=finding.severity,
-        severity_word=SEVERITY_WORDS.get(finding.severity, finding.severity.upper()),
-        severity_mark=SEVERITY_MARKS.get(finding.severity, "?"),
+        severity_word=say.severity_word(finding.severity),
+        severity_mark=say.severity_mark(finding.severity),
         rule=finding.rule,
         title=finding.title,
         subject=finding.subject,
@@ -409,34 +339,32 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     site, site_limit = format_against_limit(case.oxidant_fraction, enriched, "fraction")
     rows.append(
         (
-            "Oxidant at the site while oxygen flows",
+            say.OXIDANT_WHILE_FLOWING,
             site,
-            f"enriched above {site_limit}",
-            "enriched" if case.oxygen_enriched else "not enriched",
+            say.enriched_above(site_limit),
+            say.ENRICHED if case.oxygen_enriched else say.NOT_ENRICHED,
         )
     )
     if case.buildup_s is not None:
         rows.append(
             (
-                f"Time to reach {limit_text} after oxygen starts",
+                say.buildup_to(limit_text),
                 format_duration(case.buildup_s),
                 "",
                 "",
             )
         )
-    rows.append(
-        (f"Washout to {limit_text} after oxygen stops", format_duration(case.washout_s), "", "")
-    )
+    rows.append((say.washout_to(limit_text), format_duration(case.washout_s), "", ""))
     if case.stop_before_activation_s is not None:
         needed = case.required_stop_s if case.required_stop_s is not None else case.washout_s
         planned, needed_text = format_against_limit(case.stop_before_activation_s, needed, "s")
         rows.append(
             (
-                "Oxygen stopped before activation (planned)",
+                say.STOP_PLANNED,
                 planned,
-                f"needed {needed_text}",
+                say.needed(needed_text),
                 _relation(
-                    needed, case.stop_before_activation_s, "shorter than needed", "long enough"
+                    needed, case.stop_before_activation_s, say.STOP_SHORT, say.STOP_LONG_ENOUGH
                 ),
             )
         )
@@ -445,10 +373,12 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     )
     rows.append(
         (
-            "Oxidant at the site at first activation",
+            say.OXIDANT_AT_ACTIVATION,
             at_activation,
-            f"enriched above {activation_limit}",
-            _relation(case.oxidant_at_activation_fraction, enriched, "enriched", "not enriched"),
+            say.enriched_above(activation_limit),
+            _relation(
+                case.oxidant_at_activation_fraction, enriched, say.ENRICHED, say.NOT_ENRICHED
+            ),
         )
     )
     if case.drying_time_s is not None and case.first_activation_after_s is not None:
@@ -457,26 +387,24 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         )
         rows.append(
             (
-                "Prep drying time (flammable part gone)",
+                say.DRYING_TIME,
                 drying,
-                f"first activation at {activation}",
+                say.first_activation_at(activation),
                 _relation(
                     case.drying_time_s,
                     case.first_activation_after_s,
-                    "still wet at activation",
-                    "dry by activation",
+                    say.WET_AT_ACTIVATION,
+                    say.DRY_BY_ACTIVATION,
                 ),
             )
         )
     elif case.drying_time_s is not None:
-        rows.append(
-            ("Prep drying time (flammable part gone)", format_duration(case.drying_time_s), "", "")
-        )
+        rows.append((say.DRYING_TIME, format_duration(case.drying_time_s), "", ""))
     if case.pocket_vapour_peak_fraction_of_lfl is not None:
         rows.append(
             (
-                "Peak vapour in the drape pocket",
-                format_si(case.pocket_vapour_peak_fraction_of_lfl, "fraction") + " of LFL",
+                say.POCKET_PEAK,
+                say.of_lfl(format_si(case.pocket_vapour_peak_fraction_of_lfl, "fraction")),
                 "",
                 "",
             )
@@ -485,21 +413,21 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         planned, safe = format_against_limit(case.draping_after_s, case.safe_draping_after_s, "s")
         rows.append(
             (
-                "Drapes on after the end of prep (planned)",
+                say.DRAPES_PLANNED,
                 planned,
-                f"pocket below the vapour margin if after {safe}",
+                say.pocket_safe_if_after(safe),
                 _relation(
                     case.safe_draping_after_s,
                     case.draping_after_s,
-                    "too early for the pocket",
-                    "late enough for the pocket",
+                    say.POCKET_TOO_EARLY,
+                    say.POCKET_LATE_ENOUGH,
                 ),
             )
         )
     elif case.safe_draping_after_s is not None:
         rows.append(
             (
-                "Draping that keeps the pocket below the vapour margin, after",
+                say.SAFE_DRAPING_AFTER,
                 format_duration(case.safe_draping_after_s),
                 "",
                 "",
@@ -508,7 +436,7 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     elif case.draping_after_s is not None:
         rows.append(
             (
-                "Drapes on after the end of prep (planned)",
+                say.DRAPES_PLANNED,
                 format_duration(case.draping_after_s),
                 "",
                 "",
@@ -517,137 +445,105 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     if case.first_activation_after_s is not None:
         rows.append(
             (
-                "First activation after the end of prep (planned)",
+                say.ACTIVATION_PLANNED,
                 format_duration(case.first_activation_after_s),
                 "",
                 "",
             )
         )
     spark = results.largest_spark_J if results.largest_spark_J is not None else case.largest_spark_J
-    fuel = f" ({case.mie_fuel})" if case.mie_fuel else ""
+    mie_label = say.mie_at_activation(case.mie_fuel)
     if case.mie_J is not None and spark is not None:
         mie_text, spark_text = format_against_limit(case.mie_J, spark, "J")
         rows.append(
             (
-                f"MIE at the site at activation{fuel}",
+                mie_label,
                 mie_text,
-                f"largest static spark {spark_text}",
-                "spark can ignite" if spark >= case.mie_J else "spark below the MIE",
+                say.largest_static_spark(spark_text),
+                say.SPARK_CAN_IGNITE if spark >= case.mie_J else say.SPARK_BELOW_MIE,
             )
         )
     else:
-        rows.append((f"MIE at the site at activation{fuel}", format_si(case.mie_J, "J"), "", ""))
+        rows.append((mie_label, format_si(case.mie_J, "J"), "", ""))
 
     lists = (
-        ("Materials that would keep burning", _names(case.materials_sustain_burning)),
-        ("Materials holding charge at this RH", _names(case.materials_holding_charge)),
-        ("Ignition sources", _names(case.ignition_sources)),
+        (say.CASE_MATERIALS_BURNING, say.names_or_none(case.materials_sustain_burning)),
+        (say.CASE_MATERIALS_CHARGE, say.names_or_none(case.materials_holding_charge)),
+        (say.CASE_IGNITION_SOURCES, say.names_or_none(case.ignition_sources)),
     )
     return CaseView(
-        heading=f"Case {case.id}: {case.procedure}",
+        heading=say.case_heading(case.id, case.procedure),
         triad=_triad(case, limit_text),
-        triad_summary=_triad_summary(case),
+        triad_summary=say.triad_summary(case.triad.oxidant, case.triad.fuel, case.triad.ignition),
         quantities=Table(
-            headers=("Quantity", "Value", "Compared with", "Reading"),
+            headers=say.CASE_TABLE_HEADERS,
             rows=tuple(rows),
             widths=(2.5, 1.1, 1.9, 1.1),
         ),
-        lists=(("Site", case.site), *lists),
+        lists=((say.CASE_SITE, case.site), *lists),
         notes=tuple(case.notes),
         oxygen_chart=_oxygen_chart(case, enriched),
         film_chart=_film_chart(case),
     )
 
 
-def _names(names: Sequence[str]) -> str:
-    return ", ".join(names) if names else "none"
-
-
 def _triad(case: CaseResult, limit_text: str) -> tuple[TriadElement, ...]:
     triad = case.triad
-    oxidant_why = (
-        f"{format_si(case.oxidant_fraction, 'fraction')} while oxygen flows, "
-        f"{format_si(case.oxidant_at_activation_fraction, 'fraction')} at activation; "
-        f"enriched means above {limit_text}"
+    oxidant_why = say.triad_oxidant_why(
+        format_si(case.oxidant_fraction, "fraction"),
+        format_si(case.oxidant_at_activation_fraction, "fraction"),
+        limit_text,
     )
     fuel_parts = []
     if case.drying_time_s is not None:
-        fuel_parts.append(f"prep dries in {format_duration(case.drying_time_s)}")
+        fuel_parts.append(say.prep_dries_in(format_duration(case.drying_time_s)))
     if case.materials_sustain_burning:
-        fuel_parts.append(
-            "materials that keep burning: " + ", ".join(case.materials_sustain_burning)
-        )
-    ignition_why = ", ".join(case.ignition_sources) if case.ignition_sources else "none listed"
+        fuel_parts.append(say.materials_keep_burning(", ".join(case.materials_sustain_burning)))
+    ignition_why = ", ".join(case.ignition_sources) if case.ignition_sources else say.NONE_LISTED
     return (
-        TriadElement("Oxidant", triad.oxidant, _state(triad.oxidant), oxidant_why),
-        TriadElement("Fuel", triad.fuel, _state(triad.fuel), "; ".join(fuel_parts) or "none found"),
-        TriadElement("Ignition source", triad.ignition, _state(triad.ignition), ignition_why),
+        TriadElement(say.TRIAD_OXIDANT, triad.oxidant, say.presence(triad.oxidant), oxidant_why),
+        TriadElement(
+            say.TRIAD_FUEL,
+            triad.fuel,
+            say.presence(triad.fuel),
+            "; ".join(fuel_parts) or say.NONE_FOUND,
+        ),
+        TriadElement(
+            say.TRIAD_IGNITION, triad.ignition, say.presence(triad.ignition), ignition_why
+        ),
     )
-
-
-def _state(present: bool) -> str:
-    return "present" if present else "absent"
-
-
-def _triad_summary(case: CaseResult) -> str:
-    triad = case.triad
-    if triad.complete:
-        return "Fire triad complete: oxidant, fuel and ignition source can meet at the site."
-    missing = [
-        name
-        for name, present in (
-            ("oxidant", triad.oxidant),
-            ("fuel", triad.fuel),
-            ("ignition source", triad.ignition),
-        )
-        if not present
-    ]
-    return f"Fire triad incomplete as planned: no {' and no '.join(missing)} at the site."
 
 
 # --------------------------------------------------------------------------- room
 
 
-def _window_text(low: float | None, high: float | None) -> str:
-    if low is None and high is None:
-        return "no limits"
-    if low is None:
-        return f"up to {format_si(high, 'Ω')}"
-    if high is None:
-        return f"above {format_si(low, 'Ω')}"
-    return f"{format_si(low, 'Ω')} to {format_si(high, 'Ω')}"
-
-
 def _floor_summary(results: Results) -> Table:
     floor = results.floor
-    outside = len(floor.readings_outside)
-    if floor.passed:
-        result = "every reading within the window"
-    elif outside:
-        result = f"{outside} of {len(floor.readings_ohm)} readings outside the window"
-    else:
-        result = "outside the window"
+    result = say.floor_result(floor.passed, len(floor.readings_outside), len(floor.readings_ohm))
     rows = [
         (
-            "Window",
-            f"{floor.criteria}: {_window_text(floor.window_low_ohm, floor.window_high_ohm)}",
+            say.FLOOR_WINDOW,
+            say.floor_window(floor.criteria, floor.window_low_ohm, floor.window_high_ohm),
         ),
         (
-            "Test voltage",
+            say.FLOOR_TEST_VOLTAGE,
             format_si(floor.test_voltage_V, "V") if floor.test_voltage_V else NO_VALUE,
         ),
-        ("Readings, point to ground", str(len(floor.readings_ohm))),
-        ("Lowest (worst for shock)", _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
-        ("Highest (worst for static)", _against(floor.max_ohm, floor.window_high_ohm, "Ω")),
-        ("Mean", format_si(floor.mean_ohm, "Ω")),
-        ("Geometric mean", format_si(floor.geometric_mean_ohm, "Ω")),
-        ("Result", result),
+        (say.FLOOR_READINGS, str(len(floor.readings_ohm))),
+        (say.FLOOR_LOWEST, _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
+        (say.FLOOR_HIGHEST, _against(floor.max_ohm, floor.window_high_ohm, "Ω")),
+        (say.FLOOR_MEAN, format_si(floor.mean_ohm, "Ω")),
+        (say.FLOOR_GEOMETRIC_MEAN, format_si(floor.geometric_mean_ohm, "Ω")),
+        (say.FLOOR_RESULT, result),
     ]
     if floor.point_to_point_ohm:
         rows.append(
-            ("Point to point", ", ".join(format_si(r, "Ω") for r in floor.point_to_point_ohm))
+            (
+                say.FLOOR_POINT_TO_POINT,
+                ", ".join(format_si(r, "Ω") for r in floor.point_to_point_ohm),
+            )
         )
-    return Table(headers=("Floor", ""), rows=tuple(rows), widths=(1.0, 2.2))
+    return Table(headers=(say.FLOOR, ""), rows=tuple(rows), widths=(1.0, 2.2))
 
 
 def _floor_readings(results: Results) -> Table:
@@ -660,15 +556,15 @@ def _floor_readings(results: Results) -> Table:
             below = low is not None and (
                 high is None or _log_distance(reading, low) < _log_distance(reading, high)
             )
-            state = f"outside: below {against}" if below else f"outside: above {against}"
+            state = say.reading_outside(below, against)
         else:
-            state = "within"
+            state = say.WITHIN
         rows.append((str(index + 1), text, state))
     return Table(
-        headers=("#", "Reading", "Against the window"),
+        headers=say.READINGS_HEADERS,
         rows=tuple(rows),
         widths=(0.35, 1.0, 1.85),
-        empty_text="No floor readings.",
+        empty_text=say.NO_READINGS,
     )
 
 
@@ -699,20 +595,20 @@ def _against(value: float, limit: float | None, unit: str) -> str:
 def _shock_table(results: Results) -> Table:
     floor = results.floor
     rows = [
-        ("Supply system", floor.supply_system),
+        (say.SHOCK_SUPPLY, floor.supply_system),
         (
-            "Touch voltage",
+            say.SHOCK_TOUCH_VOLTAGE,
             format_si(floor.touch_voltage_V, "V") if floor.touch_voltage_V else NO_VALUE,
         ),
-        ("Lowest floor reading", _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
+        (say.SHOCK_LOWEST_READING, _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
         (
-            "Body impedance (IEC 60479-1)",
+            say.SHOCK_BODY,
             format_si(floor.body_impedance_ohm, "Ω") if floor.body_impedance_ohm else NO_VALUE,
         ),
-        ("Shock path: floor + body, no footwear credit", format_si(floor.shock_path_ohm, "Ω")),
-        ("Shock current (Ohm's law)", format_si(floor.shock_current_A, "A")),
+        (say.SHOCK_PATH, format_si(floor.shock_path_ohm, "Ω")),
+        (say.SHOCK_CURRENT, format_si(floor.shock_current_A, "A")),
     ]
-    return Table(headers=("Shock", ""), rows=tuple(rows), widths=(1.6, 1.6))
+    return Table(headers=(say.SHOCK, ""), rows=tuple(rows), widths=(1.6, 1.6))
 
 
 def _charges_table(
@@ -720,10 +616,10 @@ def _charges_table(
 ) -> Table:
     rows = []
     for charge in charges:
-        who = charge.label if charge.count == 1 else f"{charge.label} ×{charge.count}"
+        who = say.who(charge.label, charge.count)
         voltage = _against(charge.body_voltage_V, no_spark_V, "V")
         if not charge.generation_limited:
-            voltage += " †"
+            voltage += say.SATURATION_MARK
         rows.append(
             (
                 who,
@@ -739,21 +635,10 @@ def _charges_table(
             )
         )
     return Table(
-        headers=(
-            "Who",
-            "Kind",
-            "Footwear",
-            "Leak path",
-            "C",
-            "τ = RC",
-            "Voltage",
-            "Charge",
-            "Spark energy",
-            "Settle time",
-        ),
+        headers=say.CHARGES_HEADERS,
         rows=tuple(rows),
         widths=(1.7, 0.75, 1.0, 0.85, 0.7, 0.8, 0.85, 0.8, 0.85, 0.85),
-        empty_text="No people or trolleys described.",
+        empty_text=say.NO_CHARGES,
     )
 
 
@@ -761,14 +646,17 @@ def _preparations_table(preparations: Sequence[PreparationResult]) -> Table:
     rows = []
     for prep in preparations:
         parts = ", ".join(
-            f"{c.name} {format_si(c.mole_fraction, 'fraction')} "
-            f"(γ {format_si(c.activity_coefficient, '')})"
+            say.component_text(
+                c.name,
+                format_si(c.mole_fraction, "fraction"),
+                format_si(c.activity_coefficient, ""),
+            )
             for c in prep.components
         )
         if prep.flash_point_K is not None:
             flash, film = format_against_limit(prep.flash_point_K, prep.film_temperature_K, "K")
         else:
-            flash, film = "none", format_si(prep.film_temperature_K, "K")
+            flash, film = say.NO_FLASH_POINT, format_si(prep.film_temperature_K, "K")
         if prep.saturated_vapour_fraction is not None and prep.lfl_fraction is not None:
             vapour, lfl = format_against_limit(
                 prep.saturated_vapour_fraction, prep.lfl_fraction, "fraction"
@@ -776,19 +664,21 @@ def _preparations_table(preparations: Sequence[PreparationResult]) -> Table:
         else:
             vapour = format_si(prep.saturated_vapour_fraction, "fraction")
             lfl = format_si(prep.lfl_fraction, "fraction")
-        rows.append((f"{prep.label} [{prep.id}]", parts or NO_VALUE, flash, lfl, vapour, film))
+        rows.append(
+            (
+                say.preparation_label(prep.label, prep.id),
+                parts or NO_VALUE,
+                flash,
+                lfl,
+                vapour,
+                film,
+            )
+        )
     return Table(
-        headers=(
-            "Preparation",
-            "Liquid, mole fraction (UNIFAC γ)",
-            "Flash point",
-            "LFL",
-            "Saturated vapour",
-            "Film temperature",
-        ),
+        headers=say.PREPARATIONS_HEADERS,
         rows=tuple(rows),
         widths=(1.6, 2.2, 0.8, 0.6, 0.9, 0.9),
-        empty_text="No flammable preparations stocked.",
+        empty_text=say.NO_PREPARATIONS,
     )
 
 
@@ -796,29 +686,29 @@ def _preparation_notes(preparations: Sequence[PreparationResult]) -> tuple[str, 
     notes = []
     for prep in preparations:
         if prep.methods:
-            notes.append(f"{prep.id}: methods: " + "; ".join(prep.methods) + ".")
-        notes.extend(f"{prep.id}: {note}" for note in prep.notes)
+            notes.append(say.preparation_methods(prep.id, prep.methods))
+        notes.extend(say.preparation_note(prep.id, note) for note in prep.notes)
     return tuple(notes)
 
 
 def _environment_table(results: Results) -> Table:
     env = results.environment
     rows = (
-        ("Temperature", format_si(env.temperature_K, "K")),
-        ("Relative humidity", format_si(env.relative_humidity_fraction, "fraction")),
-        ("Air changes", format_si(env.air_changes_per_s, "per_s")),
-        ("Room volume", format_si(env.volume_m3, "m3")),
+        (say.ENV_TEMPERATURE, format_si(env.temperature_K, "K")),
+        (say.ENV_RH, format_si(env.relative_humidity_fraction, "fraction")),
+        (say.ENV_AIR_CHANGES, format_si(env.air_changes_per_s, "per_s")),
+        (say.ENV_VOLUME, format_si(env.volume_m3, "m3")),
         (
-            "Mains",
+            say.ENV_MAINS,
             f"{format_si(env.mains_voltage_V, 'V')}, {format_si(env.mains_frequency_Hz, 'Hz')}, "
             f"{env.mains_system}",
         ),
         (
-            "Whole-room oxidant rise from open delivery",
+            say.ENV_ROOM_RISE,
             format_si(env.room_oxidant_rise_fraction, "fraction", sig=2),
         ),
     )
-    return Table(headers=("Environment", ""), rows=rows, widths=(1.6, 1.6))
+    return Table(headers=(say.ENVIRONMENT, ""), rows=rows, widths=(1.6, 1.6))
 
 
 # --------------------------------------------------------------------------- charts
@@ -902,11 +792,11 @@ def _floor_chart(results: Results) -> Chart | None:
         return None
     limits = [x for x in (floor.window_low_ohm, floor.window_high_ohm) if x is not None and x > 0]
     values = [r for _, r in readings] + limits
-    y = log_axis("point to ground", min(values) / 2, max(values) * 2, "Ω")
+    y = log_axis(say.FLOOR_CHART_AXIS_Y, min(values) / 2, max(values) * 2, "Ω")
     count = len(floor.readings_ohm)
     every = max(1, math.ceil(count / 20))
     x = Axis(
-        label="reading number",
+        label=say.FLOOR_CHART_AXIS_X,
         low=0.5,
         high=count + 0.5,
         log=False,
@@ -916,31 +806,21 @@ def _floor_chart(results: Results) -> Chart | None:
     outside = tuple((float(n), r) for n, r in readings if n - 1 in floor.readings_outside)
     series = []
     if inside:
-        series.append(Series("within the window", inside, 0, line=False, marker="dot"))
+        series.append(Series(say.WITHIN_WINDOW, inside, 0, line=False, marker="dot"))
     if outside:
-        series.append(Series("outside the window", outside, 1, line=False, marker="cross"))
+        series.append(Series(say.OUTSIDE_WINDOW, outside, 1, line=False, marker="cross"))
     lines = []
     if floor.window_low_ohm is not None and floor.window_low_ohm > 0:
-        lines.append(
-            RefLine(
-                "h", floor.window_low_ohm, f"lower limit {format_si(floor.window_low_ohm, 'Ω')}"
-            )
-        )
+        lines.append(RefLine("h", floor.window_low_ohm, say.lower_limit(floor.window_low_ohm)))
     if floor.window_high_ohm is not None and floor.window_high_ohm > 0:
-        lines.append(
-            RefLine(
-                "h", floor.window_high_ohm, f"upper limit {format_si(floor.window_high_ohm, 'Ω')}"
-            )
-        )
+        lines.append(RefLine("h", floor.window_high_ohm, say.upper_limit(floor.window_high_ohm)))
     return Chart(
-        title=f"Floor readings against the {floor.criteria} window",
+        title=say.floor_chart_title(floor.criteria),
         x=x,
         y=y,
         series=tuple(series),
         lines=tuple(lines),
-        caption=(
-            "Logarithmic scale. Shock checks use the lowest reading, static checks the highest."
-        ),
+        caption=say.FLOOR_CHART_CAPTION,
     )
 
 
@@ -958,11 +838,7 @@ def _voltage_chart(results: Results) -> Chart | None:
     if not curves:
         return None
     lines = [
-        RefLine(
-            "h",
-            results.no_spark_voltage_V,
-            f"no spark below {format_si(results.no_spark_voltage_V, 'V')}",
-        )
+        RefLine("h", results.no_spark_voltage_V, say.no_spark_below(results.no_spark_voltage_V))
     ]
     mie = results.lowest_site_mie_J
     if mie is not None and mie > 0:
@@ -974,33 +850,27 @@ def _voltage_chart(results: Results) -> Chart | None:
             ((math.sqrt(2 * mie / c), c) for c in capacitances if c is not None and c > 0),
             reverse=True,
         )
-        listing = ", ".join(f"{format_si(v, 'V')} at {format_si(c, 'F')}" for v, c in energy_lines)
+        listing = ", ".join(say.voltage_at_capacitance(v, c) for v, c in energy_lines)
         for index, (voltage, _) in enumerate(energy_lines):
-            label = f"lowest site MIE {format_si(mie, 'J')}: {listing}" if index == 0 else ""
+            label = say.site_mie_line(mie, listing) if index == 0 else ""
             lines.append(RefLine("h", voltage, label))
-    fuel = str(getattr(results, "lowest_site_mie_fuel", ""))
+    fuel = results.lowest_site_mie_fuel
     rh_now = results.environment.relative_humidity_fraction
-    lines.append(
-        RefLine("v", rh_now * 100, f"room RH {format_si(rh_now, 'fraction')}", kind="event")
-    )
+    lines.append(RefLine("v", rh_now * 100, say.room_rh(rh_now), kind="event"))
     xs = [rh * 100 for _, pts in curves for rh, _ in pts] + [rh_now * 100]
     ys = [v for _, pts in curves for _, v in pts] + [
         line.at for line in lines if line.orientation == "h"
     ]
     return Chart(
-        title="Body voltage against relative humidity",
-        x=linear_axis("relative humidity [%]", min(xs), max(xs)),
-        y=log_axis("voltage", min(ys) / 1.5, max(ys) * 1.5, "V"),
+        title=say.VOLTAGE_CHART_TITLE,
+        x=linear_axis(say.VOLTAGE_CHART_AXIS_X, min(xs), max(xs)),
+        y=log_axis(say.VOLTAGE_CHART_AXIS_Y, min(ys) / 1.5, max(ys) * 1.5, "V"),
         series=tuple(
             Series(label, tuple((rh * 100, v) for rh, v in pts), style)
             for style, (label, pts) in enumerate(curves)
         ),
         lines=tuple(lines),
-        caption=(
-            "Each person or trolley on the room's leak path, walking or pushed. A spark needs "
-            "more than the no-spark voltage; above a site-MIE line (one per capacitance) it "
-            "can ignite the most easily ignited fuel at a site" + (f": {fuel}." if fuel else ".")
-        ),
+        caption=say.voltage_chart_caption(fuel),
     )
 
 
@@ -1012,19 +882,21 @@ def _oxygen_chart(case: CaseResult, enriched: float) -> Chart | None:
     # activation falls at the planned stop-before-activation time.
     events = []
     if case.stop_before_activation_s is not None and math.isfinite(case.stop_before_activation_s):
-        events.append((case.stop_before_activation_s, "first activation"))
+        events.append((case.stop_before_activation_s, say.EVENT_FIRST_ACTIVATION))
     t_max = max([t for t, _ in points] + [t for t, _ in events])
     scale, unit = _time_scale(t_max)
     top = max([x for _, x in points] + [enriched]) * 100
     return Chart(
-        title=f"Case {case.id}: oxidant at the site after oxygen stops",
+        title=say.oxygen_chart_title(case.id),
         x=linear_axis(
-            f"time after oxygen stops [{unit}]", min(t for t, _ in points) / scale, t_max / scale
+            say.oxygen_chart_axis_x(unit), min(t for t, _ in points) / scale, t_max / scale
         ),
-        y=linear_axis("oxidant [%]", 20.0, max(top, 25.0), count=4),
-        series=(Series("oxidant at the site", tuple((t / scale, x * 100) for t, x in points), 0),),
+        y=linear_axis(say.OXYGEN_CHART_AXIS_Y, 20.0, max(top, 25.0), count=4),
+        series=(
+            Series(say.OXYGEN_CHART_SERIES, tuple((t / scale, x * 100) for t, x in points), 0),
+        ),
         lines=(
-            RefLine("h", enriched * 100, f"enriched above {format_si(enriched, 'fraction')}"),
+            RefLine("h", enriched * 100, say.enriched_above(format_si(enriched, "fraction"))),
             *(RefLine("v", t / scale, label, kind="event") for t, label in events),
         ),
     )
@@ -1037,8 +909,8 @@ def _film_chart(case: CaseResult) -> Chart | None:
     events = [
         (t, label)
         for t, label in (
-            (case.draping_after_s, "drapes on"),
-            (case.first_activation_after_s, "first activation"),
+            (case.draping_after_s, say.EVENT_DRAPES_ON),
+            (case.first_activation_after_s, say.EVENT_FIRST_ACTIVATION),
         )
         if t is not None and math.isfinite(t)
     ]
@@ -1046,13 +918,11 @@ def _film_chart(case: CaseResult) -> Chart | None:
     scale, unit = _time_scale(t_max)
     top = max(x for _, x in points) * 100
     return Chart(
-        title=f"Case {case.id}: flammable liquid left on the skin",
+        title=say.film_chart_title(case.id),
         x=linear_axis(
-            f"time after the end of prep [{unit}]", min(t for t, _ in points) / scale, t_max / scale
+            say.film_chart_axis_x(unit), min(t for t, _ in points) / scale, t_max / scale
         ),
-        y=linear_axis("of the flammable liquid applied [%]", 0.0, max(top, 10.0), count=4),
-        series=(
-            Series("flammable liquid left", tuple((t / scale, x * 100) for t, x in points), 0),
-        ),
+        y=linear_axis(say.FILM_CHART_AXIS_Y, 0.0, max(top, 10.0), count=4),
+        series=(Series(say.FILM_CHART_SERIES, tuple((t / scale, x * 100) for t, x in points), 0),),
         lines=tuple(RefLine("v", t / scale, label, kind="event") for t, label in events),
     )

@@ -49,6 +49,7 @@ from reportlab.platypus import (
 )
 
 from ignite.report.worksheet import model
+from ignite.wording import sentences as say
 
 FONT = "IgniteSans"
 BOLD = "IgniteSans-Bold"
@@ -261,12 +262,12 @@ def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
             top = MARGIN_BOTTOM - 5
             self.line(left, top, right, top)
             self.setFont(BOLD, 7)
-            self.drawString(left, top - 9, f"Room {footer.room_id}")
-            self.drawRightString(right, top - 9, f"Page {number} of {total}")
+            self.drawString(left, top - 9, say.footer_room(footer.room_id))
+            self.drawRightString(right, top - 9, say.footer_page(number, total))
             self.setFont(FONT, 6.3)
-            self.drawCentredString((left + right) / 2, top - 9, f"ignite {footer.tool_version}")
-            self.drawString(left, top - 18, f"Input SHA-256  {footer.input_sha256}")
-            self.drawString(left, top - 26, f"Rules SHA-256  {footer.rules_digest}")
+            self.drawCentredString((left + right) / 2, top - 9, say.tool_label(footer.tool_version))
+            self.drawString(left, top - 18, say.footer_input(footer.input_sha256))
+            self.drawString(left, top - 26, say.footer_rules(footer.rules_digest))
             self.restoreState()
 
     return WorksheetCanvas
@@ -354,11 +355,11 @@ def _header(
     block.setStyle(TableStyle(_table_style(header=False)))
     story.append(block)
     story.append(Spacer(1, 6))
-    mark = model.SEVERITY_MARKS.get(view.verdict_severity or "", "")
+    mark = say.SEVERITY_MARKS.get(view.verdict_severity or "", "")
     verdict_text = f"{mark}  {view.verdict}" if mark else view.verdict
     verdict = Table(
         [
-            [_p("Overall", st["cellbold"]), _p(verdict_text, st["verdict"])],
+            [_p(say.OVERALL, st["cellbold"]), _p(verdict_text, st["verdict"])],
             ["", _p(view.tally, st["cell"])],
         ],
         colWidths=[28 * mm, width - 28 * mm],
@@ -385,7 +386,7 @@ def _header(
     story.append(verdict)
     if view.warnings:
         story.append(Spacer(1, 4))
-        story.append(_p("The room file was accepted with these warnings:", st["body"]))
+        story.append(_p(say.WARNINGS_INTRO, st["body"]))
         story += [_p(w, st["bullet"], bulletText="•") for w in view.warnings]
     return story
 
@@ -396,26 +397,27 @@ def _finding_card(
     label_width = 24 * mm
     limit = finding.limit
     if finding.comparison:
-        limit = f"{finding.limit} (measured is {finding.comparison} the limit)"
-    head = f"{finding.number}. {finding.severity_mark} {finding.severity_word} — {finding.title}"
+        limit = say.limit_with_comparison(finding.limit, finding.comparison)
+    head = say.finding_heading(
+        finding.number, finding.severity_mark, finding.severity_word, finding.title
+    )
     rows: list[list[Any]] = [
         [_p(head, st["cellbold"]), ""],
-        [_p("Rule", st["cellbold"]), _p(finding.rule, st["cell"])],
-        [_p("Subject", st["cellbold"]), _p(finding.subject, st["cell"])],
-        [_p("Measured", st["cellbold"]), _p(finding.measured, st["cell"])],
+        [_p(say.CARD_RULE, st["cellbold"]), _p(finding.rule, st["cell"])],
+        [_p(say.CARD_SUBJECT, st["cellbold"]), _p(finding.subject, st["cell"])],
+        [_p(say.CARD_MEASURED, st["cellbold"]), _p(finding.measured, st["cell"])],
     ]
     if finding.limit:
-        rows.append([_p("Limit", st["cellbold"]), _p(limit, st["cell"])])
+        rows.append([_p(say.CARD_LIMIT, st["cellbold"]), _p(limit, st["cell"])])
     if finding.detail:
-        rows.append([_p("Why", st["cellbold"]), _p(finding.detail, st["cell"])])
-    rows.append(
-        [_p("Source", st["cellbold"]), _p(f"{finding.source} ({finding.flag})", st["cell"])]
-    )
+        rows.append([_p(say.CARD_WHY, st["cellbold"]), _p(finding.detail, st["cell"])])
+    source = say.source_with_flag(finding.source, finding.flag)
+    rows.append([_p(say.CARD_SOURCE, st["cellbold"]), _p(source, st["cell"])])
     for index, mitigation in enumerate(finding.mitigations):
         rows.append(
             [
-                _p("Mitigations" if index == 0 else "", st["cellbold"]),
-                _p(mitigation, st["tick"], bulletText=model.TICK_BOX),
+                _p(say.CARD_MITIGATIONS if index == 0 else "", st["cellbold"]),
+                _p(mitigation, st["tick"], bulletText=say.TICK_BOX),
             ]
         )
     card = Table(rows, colWidths=[label_width, width - label_width], hAlign="LEFT")
@@ -435,16 +437,10 @@ def _finding_card(
 def _findings(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
-    story: list[Flowable] = [_p("1  Findings, worst first", st["h2"])]
+    story: list[Flowable] = [_p(say.SECTION_FINDINGS, st["h2"])]
     if not view.findings:
         return [*story, _p(view.no_findings_text, st["body"])]
-    story.append(
-        _p(
-            "Severity is printed in words and as a mark (■■■ high, ■■□ medium, ■□□ low, □□□ note). "
-            "Tick each mitigation when it is in place.",
-            st["small"],
-        )
-    )
+    story.append(_p(say.SEVERITY_KEY_NOTE, st["small"]))
     story += [_finding_card(f, width, st) for f in view.findings]
     return story
 
@@ -452,10 +448,9 @@ def _findings(
 def _triad(case: model.CaseView, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
     cells = []
     for element in case.triad:
-        mark = "●" if element.present else "○"
         cells.append(
             [
-                _p(f"{mark} {element.name}: {element.state}", st["cellbold"]),
+                _p(say.triad_element(element.present, element.name), st["cellbold"]),
                 _p(element.why, st["cell"]),
             ]
         )
@@ -495,7 +490,7 @@ def _charts_row(
 def _cases(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
-    story: list[Flowable] = [CondPageBreak(60 * mm), _p("2  Cases on the list", st["h2"])]
+    story: list[Flowable] = [CondPageBreak(60 * mm), _p(say.SECTION_CASES, st["h2"])]
     if not view.cases:
         return [*story, _p(view.no_cases_text, st["body"])]
     for index, case in enumerate(view.cases):
@@ -512,7 +507,7 @@ def _cases(
                 ]
             )
         )
-        story.append(_pairs(model.Table(("On this case", ""), case.lists, (1.3, 3.0)), width, st))
+        story.append(_pairs(model.Table((say.ON_THIS_CASE, ""), case.lists, (1.3, 3.0)), width, st))
         story.append(Spacer(1, 4))
         story.append(_grid(case.quantities, width, st))
         story += [_p(note, st["small"], bulletText="–") for note in case.notes]
@@ -525,7 +520,7 @@ def _cases(
 
 
 def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]) -> list[Flowable]:
-    story: list[Flowable] = [CondPageBreak(70 * mm), _p("3  The room", st["h2"])]
+    story: list[Flowable] = [CondPageBreak(70 * mm), _p(say.SECTION_ROOM, st["h2"])]
     gap = 8
     half = (width - gap) / 2
     pair = Table(
@@ -545,7 +540,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
             ]
         )
     )
-    story += [_p("Floor and shock current", st["h3"]), pair]
+    story += [_p(say.HEADING_FLOOR_AND_SHOCK, st["h3"]), pair]
     if view.shock_note:
         story.append(Spacer(1, 3))
         story.append(_p(view.shock_note, st["small"]))
@@ -558,7 +553,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 
     story += [
         CondPageBreak(50 * mm),
-        _p("People and trolleys", st["h3"]),
+        _p(say.HEADING_PEOPLE_AND_TROLLEYS, st["h3"]),
         _grid(view.charges, width, st),
     ]
     if view.charges.rows:
@@ -569,7 +564,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 
     story += [
         CondPageBreak(40 * mm),
-        _p("Preparations stocked", st["h3"]),
+        _p(say.HEADING_PREPARATIONS, st["h3"]),
         _grid(view.preparations, width, st),
     ]
     story += [_p(note, st["small"], bulletText="–") for note in view.preparation_notes]
@@ -580,10 +575,10 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 def _cautions_and_sign_off(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
-    story: list[Flowable] = [CondPageBreak(60 * mm), _p("4  Cautions", st["h2"])]
+    story: list[Flowable] = [CondPageBreak(60 * mm), _p(say.SECTION_CAUTIONS, st["h2"])]
     story += [_p(c, st["bullet"], bulletText="•") for c in view.cautions]
-    decisions = [_p(d, st["tick"], bulletText=model.TICK_BOX) for d in view.sign_off_decisions]
-    rows: list[list[Any]] = [[_p(h, st["cellbold"]) for h in ("", "Name", "Signature", "Date")]]
+    decisions = [_p(d, st["tick"], bulletText=say.TICK_BOX) for d in view.sign_off_decisions]
+    rows: list[list[Any]] = [[_p(h, st["cellbold"]) for h in say.SIGN_OFF_HEADERS]]
     rows += [[_p(role, st["cellbold"]), "", "", ""] for role in view.sign_off_roles]
     signatures = Table(
         rows,
@@ -595,8 +590,8 @@ def _cautions_and_sign_off(
     story.append(
         KeepTogether(
             [
-                _p("5  Sign-off", st["h2"]),
-                _p("Decision for the list (tick one):", st["body"]),
+                _p(say.SECTION_SIGN_OFF, st["h2"]),
+                _p(say.SIGN_OFF_PROMPT, st["body"]),
                 *decisions,
                 Spacer(1, 5),
                 signatures,
@@ -625,27 +620,21 @@ def _appendix(
 ) -> list[Flowable]:
     story: list[Flowable] = [
         PageBreak(),
-        _p("Appendix A  Rules evaluated", st["h2"]),
-        _p(
-            "Every check and parameter in force, and the windows, tables, footwear classes, fuels, "
-            "materials, ignition sources and sites this room uses, each with its threshold, source "
-            "and provenance flag. `ignite rules` lists the rest; the rules SHA-256 in the footer "
-            "covers them all.",
-            st["small"],
-        ),
+        _p(say.APPENDIX_RULES, st["h2"]),
+        _p(say.APPENDIX_RULES_INTRO, st["small"]),
         _grid(view.rules, width, st),
         CondPageBreak(40 * mm),
-        _p("Appendix B  Methods", st["h2"]),
+        _p(say.APPENDIX_METHODS, st["h2"]),
         _grid(view.methods, width, st),
         CondPageBreak(40 * mm),
-        _p("Appendix C  The room file as read", st["h2"]),
-        _p(f"{view.input_name} — SHA-256 {view.footer.input_sha256}", st["small"]),
+        _p(say.APPENDIX_ROOM_FILE, st["h2"]),
+        _p(say.room_file_caption(view.input_name, view.footer.input_sha256), st["small"]),
         Spacer(1, 3),
     ]
     if view.input_lines:
         story += _input_listing(view.input_lines, width, st["mono"])
     else:
-        story.append(_p("(empty)", st["body"]))
+        story.append(_p(say.EMPTY_FILE, st["body"]))
     return story
 
 
