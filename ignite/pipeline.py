@@ -4,16 +4,22 @@ from __future__ import annotations
 
 from pathlib import Path
 
+from ignite.errors import InputError, OutputExistsError, Problem
+from ignite.findings.evaluate import evaluate, known_results
+from ignite.physics import vapour
+from ignite.physics.vapour import SubstanceDataError
 from ignite.records.results import Results, RuleRow
+from ignite.report.worksheet import render_worksheet, write_worksheet
+from ignite.room.load import load_room
 from ignite.room.model import Vocabulary
+from ignite.rules.bind import bind
 from ignite.rules.bound import Bound
-from ignite.rules.rulebook import Rulebook, load_rulebook
+from ignite.rules.rulebook import Rulebook, describe, load_rulebook
+from ignite.simulate.compute import METHODS, compute
 
 
 def open_rulebook(directory: Path | None = None) -> Rulebook:
     """The rules in force, validated against the results the checks may read."""
-    from ignite.findings.evaluate import known_results
-
     return load_rulebook(directory, known_results())
 
 
@@ -30,7 +36,6 @@ def vocabulary(book: Rulebook) -> Vocabulary:
 
 def substance_problem(name: str) -> str | None:
     """None when the `chemicals` tables know the substance; else a message for the room file."""
-    from ignite.physics import vapour
 
     try:
         vapour.substance(name)
@@ -46,12 +51,6 @@ def substance_problem(name: str) -> str | None:
 
 def evaluate_room(path: Path, book: Rulebook) -> tuple[Bound, Results]:
     """Load, bind, compute and evaluate one room; raises InputError for a bad room file."""
-    from ignite.errors import InputError, Problem
-    from ignite.findings.evaluate import evaluate
-    from ignite.physics.vapour import SubstanceDataError
-    from ignite.room.load import load_room
-    from ignite.rules.bind import bind
-    from ignite.simulate.compute import compute
 
     room = load_room(path, vocabulary(book))
     bound = bind(room, book)
@@ -70,7 +69,6 @@ def run_room(path: Path, book: Rulebook) -> Results:
 def rule_rows(book: Rulebook, only: set[str] | None = None) -> list[RuleRow]:
     """Entries of the rules in force (all, or those in `only`), as `ignite rules` and the
     worksheet's appendix print them."""
-    from ignite.rules.rulebook import describe
 
     rows = []
     for entry in book.entries.values():
@@ -95,9 +93,6 @@ def write_room_worksheet(
     path: Path, book: Rulebook, output: Path | None, *, force: bool = False, paper: str = "a4"
 ) -> tuple[Results, Path]:
     """Assess one room and write its worksheet; raises InputError or OutputExistsError."""
-    from ignite.errors import OutputExistsError
-    from ignite.report.worksheet import render_worksheet, write_worksheet
-    from ignite.simulate.compute import METHODS
 
     bound, results = evaluate_room(path, book)
     target = worksheet_path(results, output)

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 
-from ignite.physics import floor
+from ignite.physics import floor, vapour
 from ignite.room.model import Room
 from ignite.rules.bound import (
     Bound,
@@ -232,8 +232,6 @@ def _fuel_by_cas(reader: _Reader, name: str) -> Entry | None:
     cas = {name.strip()}
     fuels = reader.book.of_kind("fuels")
     if not any(f.get("cas") in cas for f in fuels):
-        from ignite.physics import vapour  # chemicals: heavy, and only for unlisted names
-
         try:
             cas.add(vapour.substance(name).cas)
         except vapour.SubstanceDataError:
