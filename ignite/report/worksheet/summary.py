@@ -18,15 +18,23 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 from xml.sax.saxutils import escape
 
-from ignite.records.results import SEVERITIES, severity_rank
+from ignite.records.register import (
+    ASSESSED,
+    ERROR,
+    INVALID,
+    AuditReport,
+    FindingKey,
+    RegisterRow,
+    RoomChange,
+    severity_order,
+)
+from ignite.records.results import SEVERITIES
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 
 if TYPE_CHECKING:
     from reportlab.graphics.shapes import Drawing
     from reportlab.lib.styles import ParagraphStyle
     from reportlab.platypus import Flowable
-
-    from ignite.audit.run import AuditReport, FindingKey, RegisterRow, RoomChange
 
 FONT = "IgniteSans"  # registered by ignite.report.worksheet.pdf.register_fonts
 BOLD = "IgniteSans-Bold"
@@ -252,8 +260,6 @@ def _opening(
     from reportlab.lib import colors
     from reportlab.platypus import Spacer, Table, TableStyle
 
-    from ignite.audit.run import ASSESSED, ERROR, INVALID
-
     rows = report.rows
     assessed = [row for row in rows if row.status == ASSESSED or row.room_id]
     dates = sorted(row.assessed_on for row in assessed if row.assessed_on)
@@ -317,8 +323,7 @@ def _opening(
 
 
 def _room_order(row: RegisterRow) -> tuple[int, int, str, str]:
-    worst = row.worst_severity
-    rank = severity_rank(worst) if worst in SEVERITIES else len(SEVERITIES)
+    rank = severity_order(row.worst_severity)
     return (0 if row.floor_passed is False else 1, rank, row.room_id, row.file)
 
 
