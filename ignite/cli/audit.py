@@ -144,7 +144,7 @@ def audit(
     force: bool,
     paper: str,
 ) -> None:
-    # lazy: run pulls in the pipeline, simulate and report; `ignite --help` stays quick
+    # lazy, for start-up time: every ignite command loads this module, few run an audit
     from ignite.audit.io import RegisterError, existing_audit_files, read_register
     from ignite.audit.run import discover_rooms, run_audit
     from ignite.errors import OutputExistsError, RuleFileError

@@ -173,7 +173,7 @@ def render_summary(report: AuditReport) -> bytes:
     """The summary of an audit as PDF bytes (A4 or letter, as `report.paper` says)."""
     from reportlab.lib.pagesizes import A4, letter
 
-    from ignite.report.worksheet.pdf import new_document, register_fonts
+    from ignite.report.worksheet.pdf import new_document, register_fonts  # lazy: reportlab
 
     register_fonts()
     st = _styles()
@@ -206,7 +206,7 @@ def render_summary(report: AuditReport) -> bytes:
 def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
     from reportlab.lib import colors
 
-    from ignite.report.worksheet.pdf import PagedCanvas
+    from ignite.report.worksheet.pdf import PagedCanvas  # lazy: pdf imports reportlab
 
     class SummaryCanvas(PagedCanvas):
         def page_furniture(self, number: int, total: int) -> None:
@@ -485,7 +485,7 @@ def _then_now(then: str, now: str) -> str:
 def _changes(report: AuditReport, width: float, st: dict[str, ParagraphStyle]) -> list[Any]:
     from reportlab.platypus import KeepTogether, Spacer, Table, TableStyle
 
-    from ignite.report.worksheet.pdf import draw_chart  # lazy: pdf imports reportlab at its top
+    from ignite.report.worksheet.pdf import draw_chart  # lazy: pdf imports reportlab
 
     changes = report.changes
     assert report.previous is not None
