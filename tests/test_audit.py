@@ -22,19 +22,11 @@ from click.testing import CliRunner
 from conftest import BASE_ROOM
 from pypdf import PdfReader
 
-from ignite.audit.run import (
-    ASSESSED,
-    REGISTER_CSV,
-    REGISTER_JSON,
-    STAGING_PREFIX,
-    SUMMARY_PDF,
-    FindingKey,
-    RegisterRow,
-    compare,
-    discover_rooms,
-    read_register,
-)
+from ignite.audit.compare import compare
+from ignite.audit.io import REGISTER_CSV, REGISTER_JSON, SUMMARY_PDF, read_register
+from ignite.audit.run import STAGING_PREFIX, discover_rooms
 from ignite.cli.main import main
+from ignite.records.register import ASSESSED, FindingKey, RegisterRow
 
 
 def room(room_id: str, readings: list[str], **room_fields: Any) -> dict[str, Any]:
@@ -389,7 +381,7 @@ def test_compare_pairs_rooms_by_id_then_by_file() -> None:
 
 
 def test_read_register_rejects_what_is_not_one(tmp_path: Path) -> None:
-    from ignite.audit.run import RegisterError
+    from ignite.audit.io import RegisterError
 
     path = tmp_path / "r.csv"
     path.write_bytes(b"a,b\n1,2\n")

@@ -144,13 +144,9 @@ def audit(
     force: bool,
     paper: str,
 ) -> None:
-    from ignite.audit.run import (
-        RegisterError,
-        discover_rooms,
-        existing_audit_files,
-        read_register,
-        run_audit,
-    )
+    # lazy, for start-up time: every ignite command loads this module, few run an audit
+    from ignite.audit.io import RegisterError, existing_audit_files, read_register
+    from ignite.audit.run import discover_rooms, run_audit
     from ignite.errors import OutputExistsError, RuleFileError
     from ignite.pipeline import open_rulebook
 

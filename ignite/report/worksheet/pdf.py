@@ -724,8 +724,15 @@ def _legend_rows(chart: model.Chart, width: float) -> list[list[model.Series]]:
     return [r for r in rows if r]
 
 
-def draw_chart(chart: model.Chart, width: float, height: float) -> Drawing:
-    """The chart as a reportlab Drawing: black on white, styles told apart by dash and marker."""
+def draw_chart(
+    chart: model.Chart, width: float, height: float, *, mark_every_point: bool = False
+) -> Drawing:
+    """The chart as a reportlab Drawing: black on white, styles told apart by dash and marker.
+
+    Curves carry a few markers, enough to tell them apart; with `mark_every_point` each
+    point of a line gets its marker (measurements joined by a line, as the audit
+    summary's floor readings then and now). Series without a line are always marked.
+    """
     legend = _legend_rows(chart, width - 50)
     legend_height = 10 * len(legend) if len(chart.series) > 1 or not chart.series[0].line else 0
     left, right, top = 44.0, 8.0, 29.0
@@ -774,7 +781,7 @@ def draw_chart(chart: model.Chart, width: float, height: float) -> Drawing:
                     strokeDashArray=list(dash) if dash else None,
                 )
             )
-        if not series.line:
+        if not series.line or mark_every_point:
             chosen = points
         elif len(chart.series) > 1:
             step = max(1, len(points) // 8)

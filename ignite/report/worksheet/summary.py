@@ -5,8 +5,8 @@ floor readings then and now.
 Black-and-white first: verdicts and severities are words and symbols (✔ PASS, ✘ FAIL,
 HIGH in bold capitals), chart series differ by marker and dash, never by colour alone.
 The same report gives the same bytes (reportlab's invariant mode, no clock). The
-DejaVu fonts shipped in `ignite/fonts/` are registered here under names of this
-module's own, so the summary does not depend on the worksheet's layout module.
+document, its fonts and the floor charts come from the worksheet's layout module
+(`pdf`): a chart of readings then and now is a `model.Chart` drawn by `draw_chart`.
 """
 
 from __future__ import annotations
@@ -14,19 +14,28 @@ from __future__ import annotations
 import io
 import math
 from collections.abc import Sequence
+from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 from xml.sax.saxutils import escape
 
-from ignite.records.results import SEVERITIES, severity_rank
+from ignite.records.register import (
+    ASSESSED,
+    ERROR,
+    INVALID,
+    AuditReport,
+    FindingKey,
+    RegisterRow,
+    RoomChange,
+    severity_order,
+)
+from ignite.records.results import SEVERITIES
+from ignite.report.worksheet.model import Axis, Chart, RefLine, Series, log_axis
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 
 if TYPE_CHECKING:
-    from reportlab.graphics.shapes import Drawing
     from reportlab.lib.styles import ParagraphStyle
     from reportlab.platypus import Flowable
-
-    from ignite.audit.run import AuditReport, FindingKey, RegisterRow, RoomChange
 
 FONT = "IgniteSans"  # registered by ignite.report.worksheet.pdf.register_fonts
 BOLD = "IgniteSans-Bold"
@@ -43,6 +52,9 @@ MAX_PROBLEM_LINES = 6
 
 PASS_MARK, FAIL_MARK = "✔ PASS", "✘ FAIL"
 SEVERITY_WORDS = {"high": "HIGH", "medium": "MEDIUM", "low": "low", "note": "note", "none": "none"}
+
+THEN_STYLE, NOW_STYLE = 2, 0
+"""Chart line styles (the worksheet's dash patterns): dotted for the previous audit, solid now."""
 
 MM = 72 / 25.4
 MARGIN_SIDE = 16 * MM
@@ -161,7 +173,7 @@ def render_summary(report: AuditReport) -> bytes:
     """The summary of an audit as PDF bytes (A4 or letter, as `report.paper` says)."""
     from reportlab.lib.pagesizes import A4, letter
 
-    from ignite.report.worksheet.pdf import new_document, register_fonts
+    from ignite.report.worksheet.pdf import new_document, register_fonts  # lazy: reportlab
 
     register_fonts()
     st = _styles()
@@ -194,7 +206,7 @@ def render_summary(report: AuditReport) -> bytes:
 def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
     from reportlab.lib import colors
 
-    from ignite.report.worksheet.pdf import PagedCanvas
+    from ignite.report.worksheet.pdf import PagedCanvas  # lazy: pdf imports reportlab
 
     class SummaryCanvas(PagedCanvas):
         def page_furniture(self, number: int, total: int) -> None:
@@ -251,8 +263,6 @@ def _opening(
 ) -> list[Any]:
     from reportlab.lib import colors
     from reportlab.platypus import Spacer, Table, TableStyle
-
-    from ignite.audit.run import ASSESSED, ERROR, INVALID
 
     rows = report.rows
     assessed = [row for row in rows if row.status == ASSESSED or row.room_id]
@@ -317,8 +327,7 @@ def _opening(
 
 
 def _room_order(row: RegisterRow) -> tuple[int, int, str, str]:
-    worst = row.worst_severity
-    rank = severity_rank(worst) if worst in SEVERITIES else len(SEVERITIES)
+    rank = severity_order(row.worst_severity)
     return (0 if row.floor_passed is False else 1, rank, row.room_id, row.file)
 
 
@@ -476,6 +485,8 @@ def _then_now(then: str, now: str) -> str:
 def _changes(report: AuditReport, width: float, st: dict[str, ParagraphStyle]) -> list[Any]:
     from reportlab.platypus import KeepTogether, Spacer, Table, TableStyle
 
+    from ignite.report.worksheet.pdf import draw_chart  # lazy: pdf imports reportlab
+
     changes = report.changes
     assert report.previous is not None
     cell = st["cell"]
@@ -514,19 +525,30 @@ def _changes(report: AuditReport, width: float, st: dict[str, ParagraphStyle]) -
         out.append(_table(table, [width * f for f in fractions]))
     if unchanged:
         out.append(_p(f"Unchanged: {_ids(unchanged)}.", st["small"]))
-    charted = [c for c in changed + unchanged if c.readings_then or c.readings_now]
-    if charted:
+    with_readings = [c for c in changed + unchanged if c.readings_then or c.readings_now]
+    drawn = [(change, floor_chart(change)) for change in with_readings]
+    charts = [chart for _, chart in drawn if chart is not None]
+    undrawn = [change for change, chart in drawn if chart is None]
+    if charts:
         out.append(_p("Floor readings then and now", st["h2"]))
         out.append(
             _p(
-                "One chart a room, readings by test point on a logarithmic scale: ○ on a dotted "
-                "line the previous audit, ■ on a solid line this one; long dashes mark the "
+                "One chart a room, readings by test point on a logarithmic scale: □ on a dotted "
+                "line the previous audit, ● on a solid line this one; dashed lines mark the "
                 "window's limits.",
                 st["small"],
             )
         )
         half = (width - 8) / 2
-        drawings = [floor_chart(change, half, 128) for change in charted]
+        drawings = [
+            draw_chart(
+                replace(chart, title=_fit(chart.title, BOLD, 7.8, half - 4)),
+                half,
+                150,
+                mark_every_point=True,
+            )
+            for chart in charts
+        ]
         for start in range(0, len(drawings), 2):
             pair = drawings[start : start + 2]
             pair += [Spacer(half, 1)] * (2 - len(pair))
@@ -541,6 +563,10 @@ def _changes(report: AuditReport, width: float, st: dict[str, ParagraphStyle]) -
                 )
             )
             out.append(KeepTogether([grid, Spacer(1, 4)]))
+    if undrawn:
+        out.append(
+            _p(f"No reading to chart (none positive and finite): {_ids(undrawn)}.", st["small"])
+        )
     return out
 
 
@@ -599,19 +625,6 @@ def _finding_list(findings: Sequence[FindingKey], st: dict[str, ParagraphStyle])
     return _markup("<br/>".join(lines), st["cell"])
 
 
-def _decades(values: Sequence[float]) -> tuple[int, int]:
-    """The decades a log axis must span to show `values` (positive, finite).
-
-    >>> _decades([62e3, 31e6])
-    (4, 8)
-    >>> _decades([100e3])
-    (5, 6)
-    """
-    low = math.floor(math.log10(min(values)))
-    high = math.ceil(math.log10(max(values)))
-    return low, max(high, low + 1)
-
-
 def _fit(text: str, font: str, size: float, width: float) -> str:
     """`text`, cut with an ellipsis so that it fits `width` points."""
     from reportlab.pdfbase.pdfmetrics import stringWidth
@@ -623,130 +636,51 @@ def _fit(text: str, font: str, size: float, width: float) -> str:
     return text.rstrip() + "…"
 
 
-def floor_chart(change: RoomChange, width: float, height: float) -> Drawing:
-    """A room's floor readings by test point, then and now, on a log resistance axis."""
-    from reportlab.graphics.shapes import Circle, Drawing, Line, PolyLine, Rect, String
-    from reportlab.lib import colors
+def _drawable(readings: Sequence[float]) -> tuple[tuple[float, float], ...]:
+    """(test point, reading) of the readings a log axis can show (positive, finite)."""
+    return tuple((float(i + 1), v) for i, v in enumerate(readings) if v > 0 and math.isfinite(v))
 
-    grey = colors.Color(0.45, 0.45, 0.45)
-    faint = colors.Color(0.8, 0.8, 0.8)
-    drawing = Drawing(width, height)
-    left, right, bottom, top = 40.0, width - 6.0, 22.0, height - 24.0
-    title = _fit(f"{change.room_id or change.file}: {change.room_name}", BOLD, 7.5, width - 4)
-    drawing.add(String(0, height - 9, title, fontName=BOLD, fontSize=7.5))
-    legend = (
-        f"○ then {change.date_then or ''}".rstrip()
-        + "    "
-        + f"■ now {change.date_now or ''}".rstrip()
-        + "    — — window"
+
+def floor_chart(change: RoomChange) -> Chart | None:
+    """A room's floor readings by test point, then and now, against its window, as the
+    worksheet's chart code draws it; None when neither side has a reading to draw."""
+    then, now = _drawable(change.readings_then), _drawable(change.readings_now)
+    if not then and not now:
+        return None
+    window = [
+        (side, limit)
+        for side, limit in (("lower", change.window_low_ohm), ("upper", change.window_high_ohm))
+        if limit is not None and limit > 0 and math.isfinite(limit)
+    ]
+    values = [v for _, v in then + now] + [limit for _, limit in window]
+    count = max(len(change.readings_then), len(change.readings_now))
+    every = max(1, math.ceil(count / 20))
+    x = Axis(
+        label="test point",
+        low=0.5,
+        high=count + 0.5,
+        log=False,
+        ticks=tuple((float(n), str(n)) for n in range(1, count + 1) if (n - 1) % every == 0),
     )
-    drawing.add(String(0, height - 19, legend, fontName=FONT, fontSize=6.5))
-
-    def usable(values: Sequence[float]) -> list[float]:
-        return [v for v in values if v > 0 and math.isfinite(v)]
-
-    limits = usable([v for v in (change.window_low_ohm, change.window_high_ohm) if v is not None])
-    values = usable(change.readings_then) + usable(change.readings_now) + limits
-    if not values:
-        drawing.add(
-            String(left, (bottom + top) / 2, "no readings to draw", fontName=FONT, fontSize=7)
-        )
-        return drawing
-    low, high = _decades(values)
-    points = max(len(change.readings_then), len(change.readings_now), 1)
-
-    def y(value: float) -> float:
-        return bottom + (math.log10(value) - low) / (high - low) * (top - bottom)
-
-    def x(point: int) -> float:  # 1-based
-        if points == 1:
-            return (left + right) / 2
-        return left + 8 + (point - 1) / (points - 1) * (right - left - 16)
-
-    drawing.add(
-        Rect(
-            left,
-            bottom,
-            right - left,
-            top - bottom,
-            strokeColor=colors.black,
-            strokeWidth=0.6,
-            fillColor=None,
-        )
+    return Chart(
+        title=f"{change.room_id or change.file}: {change.room_name}",
+        x=x,
+        y=log_axis("point to ground", min(values) / 2, max(values) * 2, "Ω"),
+        series=(  # the previous audit first, so that this one is drawn over it
+            Series(
+                f"then {change.date_then}".rstrip() if then else "then: none",
+                then,
+                THEN_STYLE,
+                marker="square",
+            ),
+            Series(
+                f"now {change.date_now}".rstrip() if now else "now: none",
+                now,
+                NOW_STYLE,
+                marker="dot",
+            ),
+        ),
+        lines=tuple(
+            RefLine("h", limit, f"{side} limit {format_si(limit, 'Ω')}") for side, limit in window
+        ),
     )
-    for decade in range(low, high + 1):
-        level = y(10.0**decade)
-        if low < decade < high:
-            drawing.add(Line(left, level, right, level, strokeColor=faint, strokeWidth=0.3))
-        drawing.add(
-            String(
-                left - 3,
-                level - 2.3,
-                format_si(10.0**decade, "Ω"),
-                fontName=FONT,
-                fontSize=6,
-                textAnchor="end",
-            )
-        )
-    step = max(1, math.ceil(points / 12))
-    for point in range(1, points + 1, step):
-        drawing.add(
-            String(x(point), bottom - 8, str(point), fontName=FONT, fontSize=6, textAnchor="middle")
-        )
-    drawing.add(
-        String(
-            (left + right) / 2,
-            bottom - 17,
-            "test point",
-            fontName=FONT,
-            fontSize=6,
-            textAnchor="middle",
-        )
-    )
-    for limit in limits:
-        drawing.add(
-            Line(
-                left,
-                y(limit),
-                right,
-                y(limit),
-                strokeColor=grey,
-                strokeWidth=0.9,
-                strokeDashArray=[6, 3],
-            )
-        )
-
-    def series(readings: Sequence[float], filled: bool) -> None:
-        coordinates = [
-            (x(i + 1), y(v)) for i, v in enumerate(readings) if v > 0 and math.isfinite(v)
-        ]
-        if len(coordinates) > 1:
-            flat = [c for pair in coordinates for c in pair]
-            drawing.add(
-                PolyLine(
-                    flat,
-                    strokeColor=colors.black if filled else grey,
-                    strokeWidth=0.8 if filled else 0.7,
-                    strokeDashArray=None if filled else [1, 1.6],
-                )
-            )
-        for cx, cy in coordinates:
-            if filled:
-                drawing.add(
-                    Rect(cx - 2.2, cy - 2.2, 4.4, 4.4, fillColor=colors.black, strokeColor=None)
-                )
-            else:
-                drawing.add(
-                    Circle(
-                        cx,
-                        cy,
-                        2.8,
-                        fillColor=colors.white,
-                        strokeColor=colors.black,
-                        strokeWidth=0.7,
-                    )
-                )
-
-    series(change.readings_then, filled=False)
-    series(change.readings_now, filled=True)
-    return drawing
