@@ -33,6 +33,7 @@ from ignite.records.register import (
     one_line,
 )
 from ignite.records.results import SEVERITIES
+from ignite.wording.sentences import CLI_CAUTION
 
 REGISTER_CSV = "audit-register.csv"
 REGISTER_JSON = "audit-register.json"
@@ -40,10 +41,7 @@ SUMMARY_PDF = "audit-summary.pdf"
 AUDIT_FILES = (REGISTER_CSV, REGISTER_JSON, SUMMARY_PDF)
 """The files that mark a folder as holding an audit, in the order they are written."""
 
-CAUTION = (
-    "The figures support, and never replace, local codes, the manufacturer's instructions "
-    "and licensed professional judgement."
-)
+CAUTION = CLI_CAUTION
 REGISTER_FORMAT = 1
 
 CSV_COLUMNS = (

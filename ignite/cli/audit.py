@@ -14,16 +14,16 @@ from typing import TYPE_CHECKING, NoReturn
 
 import click
 
+from ignite.records.results import SEVERITIES
+from ignite.wording.sentences import CLI_CAUTION
+
 if TYPE_CHECKING:
     from ignite.audit.run import AuditOutcome, RoomRun
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
 EXIT_INTERRUPTED, EXIT_TERMINATED = 130, 143  # 128 + SIGINT, 128 + SIGTERM
-LEVELS = ("high", "medium", "low", "note", "never")  # ignite.records.results.SEVERITIES + "never"
-CAUTION = (
-    "The figures support, and never replace, local codes, the manufacturer's instructions "
-    "and licensed professional judgement."
-)
+LEVELS = (*SEVERITIES, "never")
+CAUTION = CLI_CAUTION
 
 HELP = """Assess every room file under DIR: one worksheet each, then a register and a summary.
 

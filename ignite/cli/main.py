@@ -19,14 +19,14 @@ from ignite import __version__
 from ignite.cli.audit import audit
 from ignite.errors import EXIT_INVALID, IgniteError, InputError, OutputExistsError
 from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
-from ignite.records.results import Results
+from ignite.records.results import SEVERITIES, Results
 from ignite.report.text import render_text
 from ignite.room.template import TEMPLATE
 from ignite.rules.rulebook import Rulebook
 from ignite.wording.sentences import CLI_CAUTION
 
 EXIT_CLEAN, EXIT_FINDINGS = 0, 1
-LEVELS = ("high", "medium", "low", "note", "never")
+LEVELS = (*SEVERITIES, "never")
 CAUTION = CLI_CAUTION
 
 rules_option = click.option(

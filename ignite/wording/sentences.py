@@ -115,6 +115,21 @@ CAUTIONS = (
 TEXT_CAUTION = f"Caution: {CAUTION_FIGURES} {CAUTION_LABEL_MINIMUM}"
 """The caution under the terminal table: the worksheet's first words on both."""
 
+AUDIT_SUMMARY_CAUTION = (
+    "The figures support, and never replace, local codes, the manufacturer's instructions and "
+    "licensed professional judgement. Each room's worksheet carries its own inputs, methods, "
+    "sources and cautions; read it before acting on a line of this summary."
+)
+
+AUDIT_SUMMARY_SEVERITY_WORDS = {
+    "high": "HIGH",
+    "medium": "MEDIUM",
+    "low": "low",
+    "note": "note",
+    "none": "none",
+}
+"""Worst-finding words of the audit summary's room table (high and medium stand out)."""
+
 CLI_CAUTION = (
     "The figures support, and never replace, local codes, the manufacturer's instructions "
     "and licensed professional judgement."

@@ -31,6 +31,7 @@ from ignite.records.register import (
 )
 from ignite.records.results import SEVERITIES
 from ignite.report.worksheet.model import Axis, Chart, RefLine, Series, log_axis
+from ignite.wording import sentences
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_si
 
 if TYPE_CHECKING:
@@ -41,17 +42,13 @@ FONT = "IgniteSans"  # registered by ignite.report.worksheet.pdf.register_fonts
 BOLD = "IgniteSans-Bold"
 MONO = "IgniteMono"
 
-CAUTION = (
-    "The figures support, and never replace, local codes, the manufacturer's instructions and "
-    "licensed professional judgement. Each room's worksheet carries its own inputs, methods, "
-    "sources and cautions; read it before acting on a line of this summary."
-)
+CAUTION = sentences.AUDIT_SUMMARY_CAUTION
 
 MAX_SITE_FINDINGS = 40
 MAX_PROBLEM_LINES = 6
 
 PASS_MARK, FAIL_MARK = "✔ PASS", "✘ FAIL"
-SEVERITY_WORDS = {"high": "HIGH", "medium": "MEDIUM", "low": "low", "note": "note", "none": "none"}
+SEVERITY_WORDS = sentences.AUDIT_SUMMARY_SEVERITY_WORDS
 
 THEN_STYLE, NOW_STYLE = 2, 0
 """Chart line styles (the worksheet's dash patterns): dotted for the previous audit, solid now."""
