@@ -265,7 +265,7 @@ def _iso_date(text: str) -> str | None:
 
 
 def _worst_first(findings: Sequence[Finding]) -> list[Finding]:
-    # sorted() is stable: findings of one severity keep the order evaluate.py gave them.
+    # sorted() is stable: findings of one severity keep the order ignite.findings gave them.
     return sorted(findings, key=lambda f: severity_rank(f.severity))
 
 
@@ -878,7 +878,7 @@ def _oxygen_chart(case: CaseResult, enriched: float) -> Chart | None:
     points = _finite_points(case.oxygen_curve)
     if len(points) < 2:
         return None
-    # The curve's clock starts when the oxygen stops (calculations.py), so the first
+    # The curve's clock starts when the oxygen stops (ignite/simulate/cases.py), so the first
     # activation falls at the planned stop-before-activation time.
     events = []
     if case.stop_before_activation_s is not None and math.isfinite(case.stop_before_activation_s):
