@@ -2,7 +2,7 @@
 
 Both are checked against published values: infinite-dilution activity coefficients of
 ethanol and isopropanol in water near 25 °C, the aqueous-ethanol closed-cup flash-point
-series and the flash point of 91 % isopropanol. `ignite.physics.vapour.ACTIVITY_MODEL`
+series, the flash point of 91 % isopropanol and the boiling points of the two azeotropes. `ignite.physics.vapour.ACTIVITY_MODEL`
 names the model in use; these tests say why, and fail if the choice stops being the
 better one. Run with `-s` to see the table of both models' errors.
 
@@ -22,7 +22,10 @@ from ignite.physics.vapour import (
     ACTIVITY_MODEL,
     UNIFAC_VARIANTS,
     activity_model,
+    bubble_point,
     mixture_flash_point,
+    mole_fractions_from_mass,
+    substance,
 )
 from ignite.simulate.preparation import analyse_preparation
 
@@ -64,6 +67,15 @@ tests/validation/test_preparations.py for the series from 30 %."""
 
 ISOPROPANOL_91 = (0.91, 14.0)  # 91 % v/v: 14 °C closed cup (physics.md §4; published, safety data)
 
+# Boiling point of the azeotrope under 101.325 kPa, % by mass: a check of γ at high
+# alcohol content, where the flash points of strong preparations are decided.
+AZEOTROPES = [
+    ("ethanol", 0.956, 78.15),  # 95.6 % w/w, 78.15 °C (CRC Handbook, azeotrope table; memory)
+    ("isopropanol", 0.877, 80.3),  # 87.7 % w/w, 80.3 °C (CRC Handbook, azeotrope table; memory)
+]
+AZEOTROPE_TOLERANCE = 1.0
+"""Tolerance on the azeotrope's boiling point [K]."""
+
 
 # --- the comparison ---------------------------------------------------------------------
 
@@ -99,6 +111,12 @@ def _gamma_infinity(alcohol: str, variant: str) -> float:
     return activity_model([alcohol, "water"], variant)(298.15, [0.0, 1.0])[0]
 
 
+def _azeotrope_boiling_c(alcohol: str, mass_fraction: float, variant: str) -> float:
+    masses = [substance(alcohol).molar_mass, substance("water").molar_mass]
+    x = mole_fractions_from_mass([mass_fraction, 1.0 - mass_fraction], masses)
+    return bubble_point([alcohol, "water"], x, variant=variant) - C
+
+
 @pytest.fixture(scope="module")
 def rows() -> dict[str, list[Row]]:
     table: dict[str, list[Row]] = {}
@@ -130,6 +148,15 @@ def rows() -> dict[str, list[Row]]:
                 _flash_point_c("isopropanol", fraction, variant),
             )
         )
+        found += [
+            Row(
+                variant,
+                f"azeotrope {alcohol} {fraction:.1%} w/w boils, °C",
+                published,
+                _azeotrope_boiling_c(alcohol, fraction, variant),
+            )
+            for alcohol, fraction, published in AZEOTROPES
+        ]
         table[variant] = found
     return table
 
@@ -146,7 +173,7 @@ def _ethanol_rms(rows: dict[str, list[Row]], variant: str) -> float:
 
 
 def _isopropanol_91(rows: dict[str, list[Row]], variant: str) -> Row:
-    return next(r for r in rows[variant] if "isopropanol" in r.quantity)
+    return next(r for r in rows[variant] if r.quantity.startswith("flash point 91% isopropanol"))
 
 
 def test_print_the_comparison(rows, capsys):
@@ -189,6 +216,13 @@ def test_chosen_model_errs_low_on_dilute_ethanol(rows):
     for r in rows[ACTIVITY_MODEL]:
         if r.quantity.startswith(("flash point 10% ethanol", "flash point 20% ethanol")):
             assert r.predicted < r.published
+
+
+@pytest.mark.parametrize("alcohol", [a for a, _, _ in AZEOTROPES])
+def test_chosen_model_boils_the_azeotrope_at_the_published_temperature(rows, alcohol):
+    # AZEOTROPES above (memory), tolerance 1 K
+    row = next(r for r in rows[ACTIVITY_MODEL] if r.quantity.startswith(f"azeotrope {alcohol}"))
+    assert abs(row.error) <= AZEOTROPE_TOLERANCE
 
 
 # --- the chosen model fits better than the other ----------------------------------------
