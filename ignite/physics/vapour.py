@@ -456,7 +456,7 @@ def _normalise(amounts: Sequence[float]) -> tuple[float, ...]:
 
 
 @lru_cache(maxsize=128)
-def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...], variant: str = "original") -> Any:
+def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...], variant: str) -> Any:
     version = UNIFAC_VARIANTS[variant][1]
 
     def build() -> Any:
@@ -568,19 +568,17 @@ def activity_model(
 
 @lru_cache(maxsize=64)
 def _activity_model(
-    cas: tuple[str, ...], variant: str = ACTIVITY_MODEL
+    cas: tuple[str, ...], variant: str
 ) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     substances = [substance(c) for c in cas]
     if len(substances) == 1:
         return lambda temperature, x: (1.0,)
-    for s in substances:
-        if not s.unifac_groups:
-            raise SubstanceDataError(s.name, "no UNIFAC group assignment in the thermo tables")
     used = activity_model_name(cas, variant)
-    if used == "dortmund":
-        model = _unifac(tuple(s.dortmund_groups for s in substances), used)
-    else:
-        model = _unifac(tuple(s.unifac_groups for s in substances), used)
+    groups = tuple(s.dortmund_groups if used == "dortmund" else s.unifac_groups for s in substances)
+    for s, found in zip(substances, groups, strict=True):
+        if not found:
+            raise SubstanceDataError(s.name, "no UNIFAC group assignment in the thermo tables")
+    model = _unifac(groups, used)
 
     def gammas(temperature: float, x: Sequence[float]) -> tuple[float, ...]:
         return tuple(float(g) for g in model.to_T_xs(temperature, list(x)).gammas())
@@ -594,8 +592,8 @@ def activity_model_at(
 ) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     """γ(T, x) for many calls at one temperature: a binary's ln γ is tabulated once.
 
-    Same signature as `activity_model`'s function; a call at another temperature
-    falls back to UNIFAC itself. For three or more components UNIFAC is called directly.
+    Same signature as `activity_model`'s function (the variant ACTIVITY_MODEL); a call at
+    another temperature falls back to UNIFAC itself. For three or more components UNIFAC is called directly.
     """
     direct = activity_model(cas)
     if len(cas) != 2:
