@@ -1,6 +1,7 @@
 """Flammable liquids: what a liquid is made of and what vapour it gives off.
 
-Composition by volume or mass → liquid mole fractions; UNIFAC activity coefficients;
+Composition by volume or mass → liquid mole fractions; activity coefficients by
+modified UNIFAC (Dortmund), or original UNIFAC where a component has no Dortmund groups;
 vapour pressures; the mixture flash point by Liaw et al. (2002); the mixture LFL by
 Le Chatelier's rule. `ignite.simulate.preparation` steps these through one preparation.
 
@@ -13,9 +14,16 @@ by a named method:
   `chemicals` package's other flash-point sources are never used: its
   group-contribution set (Serat et al., 2017) puts ethanol at −13 °C against 12 °C
   in IEC 60079-20-1.
-- vapour pressure: the first correlation in `VAPOUR_PRESSURE_METHODS` that `thermo` has
-  for the substance and whose fitted range covers 0 °C (or 20 K below the flash point)
-  to 120 °C; liquid density: the first in `DENSITY_METHODS`.
+- vapour pressure: for water, ethanol, isopropanol, methanol and acetone the correlation
+  named in `VAPOUR_PRESSURE_CHOICE`, the one that agrees with the literature value at
+  25 °C (tests/validation/test_preparations.py); for any other substance the first
+  correlation in `VAPOUR_PRESSURE_METHODS` that `thermo` has for it and whose fitted
+  range covers 0 °C (or 20 K below the flash point) to 120 °C;
+- liquid density: the first in `DENSITY_METHODS`;
+- activity coefficients: `ACTIVITY_MODEL` (modified UNIFAC, Dortmund) with the DDBST
+  group assignments `thermo` ships; original UNIFAC for a liquid with a component that
+  has no Dortmund assignment (glycerol). The choice rests on the comparison in
+  tests/validation/test_activity_models.py.
 
 Mole fractions are [-], temperatures [K], pressures [Pa], molar masses [kg/mol],
 densities [kg/m³], molar volumes [m³/mol]. `chemicals` and `thermo` load slowly, so
@@ -35,17 +43,22 @@ from typing import Any
 from ignite.physics import _cache
 
 __all__ = [
+    "ACTIVITY_MODEL",
     "DENSITY_METHODS",
     "FIRE_DATA_METHODS",
     "STANDARD_PRESSURE",
+    "UNIFAC_VARIANTS",
+    "VAPOUR_PRESSURE_CHOICE",
     "VAPOUR_PRESSURE_METHODS",
     "VOLUME_BASIS_TEMPERATURE",
     "WATER_CAS",
     "Substance",
     "SubstanceDataError",
     "UnknownSubstance",
+    "activity_coefficients_dortmund",
     "activity_coefficients_unifac",
     "activity_model",
+    "activity_model_name",
     "bubble_point",
     "fraction_of_lfl",
     "lfl_le_chatelier",
@@ -87,6 +100,42 @@ VAPOUR_PRESSURE_METHODS: dict[str, str] = {
 }
 """`thermo` vapour-pressure methods in order of preference, with the names reports print."""
 
+VAPOUR_PRESSURE_CHOICE: dict[str, str] = {
+    "7732-18-5": "IAPWS_PSAT",  # water: the reference equation; 3169.9 Pa at 25 °C
+    "64-17-5": "WAGNER_POLING",  # ethanol: 7874 Pa at 25 °C
+    "67-63-0": "DIPPR_PERRY_8E",  # isopropanol: 6027 Pa (the Wagner sets give 5780-5800)
+    "67-56-1": "WAGNER_POLING",  # methanol: 16943 Pa
+    "67-64-1": "WAGNER_POLING",  # acetone: 30803 Pa
+}
+"""Vapour-pressure correlation by CAS number for the solvents of skin preparations: of the
+methods `thermo` carries, the one that agrees with the literature value at 25 °C and
+covers 0-120 °C (tests/validation/test_preparations.py compares them). Isopropanol is the
+one that departs from the general order: its three Wagner-type sets (McGarry; Poling et
+al.; VDI PPDS) lie 4 % below the literature value at 25 °C, DIPPR 101 within 0.4 %."""
+
+UNIFAC_VARIANTS: dict[str, tuple[str, int, str]] = {
+    "dortmund": (
+        "MODIFIED_UNIFAC",
+        1,
+        "modified UNIFAC (Dortmund; Weidlich & Gmehling 1987), parameters as published "
+        "to 2016, as shipped by thermo",
+    ),
+    "original": (
+        "UNIFAC",
+        0,
+        "UNIFAC (original; Fredenslund, Jones & Prausnitz 1975) as shipped by thermo",
+    ),
+}
+"""The UNIFAC variants: name -> (DDBST group-assignment table, `thermo` version number,
+the name reports print)."""
+
+ACTIVITY_MODEL = "dortmund"
+"""The UNIFAC variant used wherever every component has groups for it. Against published
+infinite-dilution activity coefficients of ethanol and isopropanol in water and the
+aqueous-ethanol flash-point series it fits better than original UNIFAC, and it puts 91 %
+isopropanol's flash point nearer the published value (neither is on the safe side there);
+tests/validation/test_activity_models.py prints and checks both."""
+
 DENSITY_METHODS: dict[str, str] = {
     "HEOS_FIT": "fit to the reference Helmholtz equation of state",
     "DIPPR_PERRY_8E": "DIPPR 105 equation, Perry's Handbook 8th ed.",
@@ -126,6 +175,7 @@ class Substance:
     formula: str
     molar_mass: float  # kg/mol
     unifac_groups: tuple[tuple[int, int], ...]  # (original UNIFAC subgroup id, count)
+    dortmund_groups: tuple[tuple[int, int], ...]  # (modified UNIFAC subgroup id, count)
     flash_point: float | None  # K, closed cup
     lfl: float | None  # mole fraction in air
     ufl: float | None  # mole fraction in air
@@ -189,22 +239,25 @@ def _resolve(name: str, text: str) -> Substance:
 
     flash_point = fire["flash point"][0]
     span_low = min(273.15, flash_point - 20.0) if flash_point is not None else 273.15
-    psat_method = _preferred_method(
-        _vapour_pressure_model(cas), VAPOUR_PRESSURE_METHODS, (span_low, 393.15)
-    )
+    psat_model = _vapour_pressure_model(cas)
+    psat_method = VAPOUR_PRESSURE_CHOICE.get(cas)
+    if psat_method not in psat_model.all_methods:
+        psat_method = _preferred_method(psat_model, VAPOUR_PRESSURE_METHODS, (span_low, 393.15))
     if psat_method is not None:
         methods.append(f"{common} vapour pressure: {VAPOUR_PRESSURE_METHODS[psat_method]}")
     density_method = _preferred_method(_liquid_volume_model(cas), DENSITY_METHODS)
     if density_method is not None:
         methods.append(f"{common} liquid density: {DENSITY_METHODS[density_method]}")
 
-    groups = UNIFAC_group_assignment_DDBST(cas, "UNIFAC") or {}
+    groups = UNIFAC_group_assignment_DDBST(cas, UNIFAC_VARIANTS["original"][0]) or {}
+    dortmund = UNIFAC_group_assignment_DDBST(cas, UNIFAC_VARIANTS["dortmund"][0]) or {}
     return Substance(
         name=common,
         cas=cas,
         formula=metadata.formula,
         molar_mass=metadata.MW / 1000.0,
         unifac_groups=tuple(sorted((int(k), int(v)) for k, v in groups.items())),
+        dortmund_groups=tuple(sorted((int(k), int(v)) for k, v in dortmund.items())),
         flash_point=flash_point,
         lfl=fire["LFL"][0],
         ufl=fire["UFL"][0],
@@ -403,15 +456,28 @@ def _normalise(amounts: Sequence[float]) -> tuple[float, ...]:
 
 
 @lru_cache(maxsize=128)
-def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...]) -> Any:
+def _unifac(groups: tuple[tuple[tuple[int, int], ...], ...], variant: str) -> Any:
+    version = UNIFAC_VARIANTS[variant][1]
+
     def build() -> Any:
         from thermo.unifac import UNIFAC
 
         chemgroups = [dict(g) for g in groups]
         start = [1.0 / len(groups)] * len(groups)
-        return UNIFAC.from_subgroups(T=298.15, xs=start, chemgroups=chemgroups, version=0)
+        return UNIFAC.from_subgroups(T=298.15, xs=start, chemgroups=chemgroups, version=version)
 
-    return _cached_model("unifac", groups, "UNIFAC", build)
+    return _cached_model("unifac", (variant, groups), "UNIFAC", build)
+
+
+def _gammas(
+    variant: str,
+    temperature: float,
+    mole_fractions: Sequence[float],
+    groups: Sequence[Sequence[tuple[int, int]]],
+) -> tuple[float, ...]:
+    key = tuple(tuple((int(a), int(b)) for a, b in g) for g in groups)
+    model = _unifac(key, variant)
+    return tuple(float(g) for g in model.to_T_xs(temperature, list(mole_fractions)).gammas())
 
 
 def activity_coefficients_unifac(
@@ -436,32 +502,83 @@ def activity_coefficients_unifac(
     Reference: Fredenslund, Jones & Prausnitz, AIChE J. 21 (1975) 1086; parameters as
     shipped by `thermo` (original UNIFAC subgroups and interaction table).
     """
-    key = tuple(tuple(tuple(pair) for pair in g) for g in groups)
-    model = _unifac(key)
-    return tuple(float(g) for g in model.to_T_xs(temperature, list(mole_fractions)).gammas())
+    return _gammas("original", temperature, mole_fractions, groups)
 
 
-def activity_model(cas: Sequence[str]) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
+def activity_coefficients_dortmund(
+    temperature: float,
+    mole_fractions: Sequence[float],
+    groups: Sequence[Sequence[tuple[int, int]]],
+) -> tuple[float, ...]:
+    """Liquid-phase activity coefficients γ_i by modified UNIFAC (Dortmund).
+
+    Differs from original UNIFAC in a combinatorial part with volume fractions to the
+    power 3/4 and in temperature-dependent group interactions, a_nm + b_nm·T + c_nm·T².
+
+    temperature [K];  mole_fractions x_i [-];  groups : per component, its
+    (subgroup id, count) pairs in the modified UNIFAC (Dortmund) table (as
+    `Substance.dortmund_groups`). Returns γ_i [-].
+
+    Worked example, ethanol–water at x_EtOH = 0.1 and 25 °C (ethanol CH3 + CH2 + OH(p),
+    water H2O; group counts from the DDBST assignments). Ethanol's vapour is 3.0 times
+    what ideal Raoult's law would give (original UNIFAC says 3.4):
+
+    >>> [round(g, 2) for g in activity_coefficients_dortmund(
+    ...     298.15, [0.1, 0.9], [((1, 1), (2, 1), (14, 1)), ((16, 1),)])]
+    [3.04, 1.02]
+
+    Reference: Weidlich & Gmehling, Ind. Eng. Chem. Res. 26 (1987) 1372; Gmehling, Li &
+    Schiller, Ind. Eng. Chem. Res. 32 (1993) 178; parameters as published to 2016, as
+    shipped by `thermo`.
+    """
+    return _gammas("dortmund", temperature, mole_fractions, groups)
+
+
+def activity_model_name(cas: Sequence[str], variant: str = ACTIVITY_MODEL) -> str:
+    """The UNIFAC variant `activity_model(cas, variant)` uses: `variant` when every
+    component has groups for it, else "original" (the wider table).
+
+    >>> activity_model_name(["ethanol", "water"]), activity_model_name(["glycerol", "water"])
+    ('dortmund', 'original')
+    """
+    if variant not in UNIFAC_VARIANTS:
+        raise ValueError(f"unknown UNIFAC variant {variant!r}")
+    if variant == "dortmund" and not all(substance(c).dortmund_groups for c in cas):
+        return "original"
+    return variant
+
+
+def activity_model(
+    cas: Sequence[str], variant: str = ACTIVITY_MODEL
+) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     """γ(T, x) for a fixed list of substances: UNIFAC, or γ = 1 for a single component.
 
+    variant : a key of UNIFAC_VARIANTS; where a component lacks Dortmund groups the
+    whole liquid falls back to original UNIFAC (`activity_model_name` says which).
     The UNIFAC object is built once, so the returned function is cheap to call in a loop.
 
     >>> gamma = activity_model(["ethanol", "water"])
     >>> [round(g, 2) for g in gamma(298.15, [0.1, 0.9])]
+    [3.04, 1.02]
+    >>> [round(g, 2) for g in activity_model(["ethanol", "water"], "original")(298.15, [0.1, 0.9])]
     [3.43, 1.04]
     """
-    return _activity_model(tuple(cas))
+    return _activity_model(tuple(cas), variant)
 
 
 @lru_cache(maxsize=64)
-def _activity_model(cas: tuple[str, ...]) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
+def _activity_model(
+    cas: tuple[str, ...], variant: str
+) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     substances = [substance(c) for c in cas]
     if len(substances) == 1:
         return lambda temperature, x: (1.0,)
-    for s in substances:
-        if not s.unifac_groups:
+    used = activity_model_name(cas, variant)
+    groups = tuple(s.dortmund_groups if used == "dortmund" else s.unifac_groups for s in substances)
+    for s, found in zip(substances, groups, strict=True):
+        if not found:
             raise SubstanceDataError(s.name, "no UNIFAC group assignment in the thermo tables")
-    model = _unifac(tuple(s.unifac_groups for s in substances))
+    model = _unifac(groups, used)
 
     def gammas(temperature: float, x: Sequence[float]) -> tuple[float, ...]:
         return tuple(float(g) for g in model.to_T_xs(temperature, list(x)).gammas())
@@ -475,8 +592,8 @@ def activity_model_at(
 ) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     """γ(T, x) for many calls at one temperature: a binary's ln γ is tabulated once.
 
-    Same signature as `activity_model`'s function; a call at another temperature
-    falls back to UNIFAC itself. For three or more components UNIFAC is called directly.
+    Same signature as `activity_model`'s function (the variant ACTIVITY_MODEL); a call at
+    another temperature falls back to UNIFAC itself. For three or more components UNIFAC is called directly.
     """
     direct = activity_model(cas)
     if len(cas) != 2:
@@ -516,16 +633,22 @@ def _tabulated_binary(
 
 
 def partial_pressures(
-    cas: Sequence[str], mole_fractions: Sequence[float], temperature: float
+    cas: Sequence[str],
+    mole_fractions: Sequence[float],
+    temperature: float,
+    variant: str = ACTIVITY_MODEL,
 ) -> tuple[float, ...]:
     """Modified Raoult's law over a liquid: p_i = x_i · γ_i · P_sat,i(T) [Pa].
 
-    Worked example, pure isopropanol at 25 °C (Wagner equation, McGarry coefficients):
+    γ_i by `activity_model(cas, variant)`.
+
+    Worked example, pure isopropanol at 25 °C (DIPPR 101, Perry's 8th ed.; the
+    literature value is about 6.05 kPa):
 
     >>> round(partial_pressures(["isopropanol"], [1.0], 298.15)[0], -1)
-    5780.0
+    6030.0
     """
-    gammas = activity_model(cas)(temperature, mole_fractions)
+    gammas = activity_model(cas, variant)(temperature, mole_fractions)
     return tuple(
         x * g * vapour_pressure(c, temperature)
         for c, x, g in zip(cas, mole_fractions, gammas, strict=True)
@@ -568,9 +691,14 @@ def liaw_sum(
 
 
 def bubble_point(
-    cas: Sequence[str], mole_fractions: Sequence[float], pressure: float = STANDARD_PRESSURE
+    cas: Sequence[str],
+    mole_fractions: Sequence[float],
+    pressure: float = STANDARD_PRESSURE,
+    variant: str = ACTIVITY_MODEL,
 ) -> float:
     """Temperature [K] at which the liquid boils: Σ x_i·γ_i·P_sat,i(T) = P.
+
+    γ_i by `activity_model(cas, variant)`.
 
     >>> round(bubble_point(["water"], [1.0]) - 273.15, 2)     # IAPWS-95: 99.97 °C
     99.97
@@ -584,7 +712,7 @@ def bubble_point(
     high = min(_temperature_limits(c)[1] for c in volatile)
 
     def excess(temperature: float) -> float:
-        return sum(partial_pressures(cas, mole_fractions, temperature)) - pressure
+        return sum(partial_pressures(cas, mole_fractions, temperature, variant)) - pressure
 
     if excess(high) < 0.0:
         return high
@@ -592,12 +720,16 @@ def bubble_point(
 
 
 def mixture_flash_point(
-    cas: Sequence[str], mole_fractions: Sequence[float], pressure: float = STANDARD_PRESSURE
+    cas: Sequence[str],
+    mole_fractions: Sequence[float],
+    pressure: float = STANDARD_PRESSURE,
+    variant: str = ACTIVITY_MODEL,
 ) -> float | None:
     """Closed-cup flash point of a liquid mixture [K] by Liaw et al. (2002).
 
     Solves Σ_flammable x_i·γ_i(T)·P_sat,i(T)/P_sat,i(T_fp,i) = 1 for T, with UNIFAC
-    γ over the whole liquid (water included) and pure flash points from
+    γ (`activity_model(cas, variant)`) over the whole liquid (water included) and pure
+    flash points from
     FIRE_DATA_METHODS. Components with an LFL but no tabulated flash point are left
     out of the sum (a flash point that is too high, on the unsafe side; the caller
     notes them). Returns None when the liquid has no flammable component with a
@@ -607,7 +739,7 @@ def mixture_flash_point(
     value is 24 °C:
 
     >>> round(mixture_flash_point(["ethanol", "water"], [0.2357, 0.7643]) - 273.15, 1)
-    25.0
+    24.5
 
     Reference: Liaw, Lee, Tang, Hsu & Liu, J. Loss Prev. Process Ind. 15 (2002) 429-438.
     """
@@ -620,7 +752,7 @@ def mixture_flash_point(
     ]
     if not fuels or all(mole_fractions[i] <= 0.0 for i in fuels):
         return None
-    gamma = activity_model(cas)
+    gamma = activity_model(cas, variant)
     fuel_cas = [cas[i] for i in fuels]
     at_flash = [vapour_pressure(c, _flash_point_of(c)) for c in fuel_cas]
 
@@ -636,7 +768,7 @@ def mixture_flash_point(
             - 1.0
         )
 
-    high = bubble_point(cas, mole_fractions, pressure)
+    high = bubble_point(cas, mole_fractions, pressure, variant)
     if excess(high) < 0.0:
         return None
     volatile = [c for c in cas if substance(c).volatile]

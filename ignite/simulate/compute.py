@@ -45,13 +45,14 @@ METHODS: tuple[MethodRef, ...] = (
         "power law fitted to air/O₂ pairs (Lewis & von Elbe; Blanc et al. 1949)",
     ),
     MethodRef(
-        "Activity coefficients by UNIFAC", "Fredenslund, Jones & Prausnitz (1975), via thermo"
+        "Activity coefficients by modified UNIFAC (Dortmund); original UNIFAC where a component has no Dortmund groups",
+        "Weidlich & Gmehling (1987), parameters to 2016; Fredenslund, Jones & Prausnitz (1975); via thermo",
     ),
     MethodRef("Mixture flash point", "Liaw et al. (2002)"),
     MethodRef("Mixture lower flammable limit", "Le Chatelier's rule"),
     MethodRef(
         "Pure-component data (vapour pressure, LFL, flash point, autoignition)",
-        "IEC 60079-20-1:2010 and NFPA 497:2008 via the chemicals package",
+        "IEC 60079-20-1:2010 and NFPA 497:2008 via the chemicals package; vapour pressure by IAPWS-95 (water), DIPPR 101 (isopropanol), Wagner, Poling et al. (ethanol, methanol, acetone) via thermo",
     ),
     MethodRef(
         "Film evaporation, Sh = 0.664·Re^½·Sc^⅓ with a natural-convection floor",

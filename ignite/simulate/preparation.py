@@ -18,11 +18,13 @@ from dataclasses import dataclass
 from ignite.physics.vapour import (
     FIRE_DATA_METHODS,
     STANDARD_PRESSURE,
+    UNIFAC_VARIANTS,
     VOLUME_BASIS_TEMPERATURE,
     WATER_CAS,
     Substance,
     SubstanceDataError,
     activity_model,
+    activity_model_name,
     lfl_le_chatelier,
     liquid_molar_volume,
     mixture_flash_point,
@@ -35,8 +37,6 @@ from ignite.simulate.notes import Note
 
 __all__ = ["PreparationAnalysis", "analyse_preparation"]
 
-_UNIFAC_NAME = "UNIFAC (original; Fredenslund, Jones & Prausnitz 1975) as shipped by thermo"
-
 
 @dataclass(frozen=True)
 class PreparationAnalysis:
@@ -45,7 +45,7 @@ class PreparationAnalysis:
     names: tuple[str, ...]  # common names as resolved
     cas: tuple[str, ...]
     mole_fractions: tuple[float, ...]  # liquid, normalised over the components kept
-    activity_coefficients: tuple[float, ...]  # UNIFAC at film_temperature_K
+    activity_coefficients: tuple[float, ...]  # UNIFAC (Dortmund) at film_temperature_K
     flammable: tuple[bool, ...]  # has an LFL in FIRE_DATA_METHODS (water: False)
     flash_point_K: float | None  # mixture, Liaw et al. (2002)
     lfl_fraction: float | None  # Le Chatelier over the saturated vapour's flammable part
@@ -85,7 +85,7 @@ def analyse_preparation(
 
     >>> a = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
     >>> round(a.flash_point_K - 273.15, 1), a.lfl_fraction, round(a.saturated_vapour_fraction, 3)
-    (20.9, 0.02, 0.048)
+    (19.2, 0.02, 0.055)
     """
     if basis not in ("volume", "mass"):
         raise ValueError(f"basis must be 'volume' or 'mass', got {basis!r}")
@@ -108,7 +108,7 @@ def analyse_preparation(
         lfl_fraction=lfl,
         saturated_vapour_fraction=saturated,
         film_temperature_K=film_temperature_K,
-        methods=_methods(substances, basis, basis_temperature_K),
+        methods=_methods(substances, cas, basis, basis_temperature_K),
         notes=tuple(notes),
         molar_volumes=molar_volumes,
         lfls=tuple(s.lfl for s in substances),
@@ -190,11 +190,11 @@ def _saturated_vapour(
 
 
 def _methods(
-    substances: Sequence[Substance], basis: str, basis_temperature: float
+    substances: Sequence[Substance], cas: Sequence[str], basis: str, basis_temperature: float
 ) -> tuple[str, ...]:
     """The methods behind the analysis, then those behind each substance's data."""
     methods = [
-        _UNIFAC_NAME if len(substances) > 1 else "single component: activity coefficient 1",
+        _activity_method(substances, cas),
         "mixture flash point: Liaw et al. (2002)",
         "mixture LFL: Le Chatelier's rule over the saturated vapour",
         f"composition by {basis}; pure-liquid densities at {basis_temperature - 273.15:g} °C",
@@ -202,3 +202,15 @@ def _methods(
     for s in substances:
         methods.extend(s.methods)
     return tuple(methods)
+
+
+def _activity_method(substances: Sequence[Substance], cas: Sequence[str]) -> str:
+    """The activity-coefficient method, and why where the liquid falls back to original UNIFAC."""
+    if len(substances) == 1:
+        return "single component: activity coefficient 1"
+    used = activity_model_name(cas)
+    name = UNIFAC_VARIANTS[used][2]
+    missing = [s.name for s in substances if not s.dortmund_groups]
+    if used == "original" and missing:
+        return f"{name} (no modified UNIFAC (Dortmund) groups for {', '.join(missing)})"
+    return name

@@ -8,12 +8,19 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from ignite.physics import vapour
 from ignite.physics.vapour import (
+    ACTIVITY_MODEL,
     FIRE_DATA_METHODS,
+    UNIFAC_VARIANTS,
+    VAPOUR_PRESSURE_CHOICE,
+    VAPOUR_PRESSURE_METHODS,
     SubstanceDataError,
     UnknownSubstance,
+    activity_coefficients_dortmund,
     activity_coefficients_unifac,
     activity_model,
+    activity_model_name,
     bubble_point,
     fraction_of_lfl,
     lfl_le_chatelier,
@@ -151,6 +158,58 @@ def test_substance_without_groups_cannot_enter_unifac():
         activity_model(["chlorhexidine", "water"])
 
 
+def test_the_chosen_model_is_dortmund_with_its_own_groups():
+    assert ACTIVITY_MODEL == "dortmund"
+    assert ACTIVITY_MODEL in UNIFAC_VARIANTS
+    # isopropanol's OH is secondary in the Dortmund table (subgroup 81), primary in the original
+    assert (81, 1) in substance("isopropanol").dortmund_groups
+    assert (14, 1) in substance("isopropanol").unifac_groups
+    groups = [substance(n).dortmund_groups for n in ("isopropanol", "water")]
+    direct = activity_coefficients_dortmund(305.15, [0.3, 0.7], groups)
+    assert activity_model(["isopropanol", "water"])(305.15, [0.3, 0.7]) == direct
+    assert activity_model(["isopropanol", "water"], "dortmund")(305.15, [0.3, 0.7]) == direct
+
+
+def test_the_two_variants_differ_and_both_are_ideal_when_pure():
+    dortmund = activity_model(["ethanol", "water"], "dortmund")
+    original = activity_model(["ethanol", "water"], "original")
+    assert dortmund(298.15, [0.1, 0.9]) != original(298.15, [0.1, 0.9])
+    for model in (dortmund, original):
+        assert model(298.15, [1.0, 0.0])[0] == pytest.approx(1.0, abs=1e-9)
+        assert model(298.15, [0.0, 1.0])[1] == pytest.approx(1.0, abs=1e-9)
+
+
+def test_a_component_without_dortmund_groups_falls_back_to_original_unifac():
+    # glycerol has original UNIFAC groups but no Dortmund assignment in the DDBST tables
+    assert substance("glycerol").unifac_groups and not substance("glycerol").dortmund_groups
+    cas = ["glycerol", "ethanol", "water"]
+    assert activity_model_name(cas) == "original"
+    assert activity_model_name(["ethanol", "water"]) == "dortmund"
+    assert activity_model_name(["ethanol", "water"], "original") == "original"
+    x = [0.05, 0.3, 0.65]
+    assert activity_model(cas)(300.0, x) == activity_model(cas, "original")(300.0, x)
+
+
+def test_an_unknown_variant_is_refused():
+    with pytest.raises(ValueError, match="variant"):
+        activity_model_name(["ethanol", "water"], "lyngby")
+
+
+def test_chosen_vapour_pressure_methods_are_named_and_cover_the_range():
+    for cas, method in VAPOUR_PRESSURE_CHOICE.items():
+        found = substance(cas)
+        assert found.vapour_pressure_method == method
+        assert any(VAPOUR_PRESSURE_METHODS[method] in m for m in found.methods)
+        low, high = vapour._vapour_pressure_model(cas).T_limits[method]
+        assert low <= 273.15 and high >= 393.15
+
+
+def test_other_substances_keep_the_general_order():
+    # diethyl ether is not in the explicit table: the first method of the order that fits
+    assert "60-29-7" not in VAPOUR_PRESSURE_CHOICE
+    assert substance("diethyl ether").vapour_pressure_method in VAPOUR_PRESSURE_METHODS
+
+
 def test_partial_pressures_of_a_pure_liquid_are_its_vapour_pressure():
     assert partial_pressures(["ethanol"], [1.0], 300.0)[0] == pytest.approx(
         vapour_pressure("ethanol", 300.0)
@@ -221,12 +280,12 @@ def test_more_alcohol_never_raises_the_flash_point(low, step):
 
 def test_tabulated_binary_matches_direct_unifac():
     """The binary γ table reproduces UNIFAC itself (regression of the speed-up, not a published value)."""
-    from ignite.physics.vapour import activity_coefficients_unifac, activity_model_at, substance
+    from ignite.physics.vapour import activity_coefficients_dortmund, activity_model_at, substance
 
-    groups = [substance(n).unifac_groups for n in ("isopropanol", "water")]
+    groups = [substance(n).dortmund_groups for n in ("isopropanol", "water")]
     gamma = activity_model_at(("isopropanol", "water"), 305.15)
     for x1 in (0.0005, 0.01, 0.13, 0.41, 0.77, 0.999):
-        direct = activity_coefficients_unifac(305.15, [x1, 1 - x1], groups)
+        direct = activity_coefficients_dortmund(305.15, [x1, 1 - x1], groups)
         table = gamma(305.15, [x1, 1 - x1])
         for d, t in zip(direct, table, strict=True):
             assert t == pytest.approx(d, rel=1e-3)

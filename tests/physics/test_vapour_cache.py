@@ -24,6 +24,8 @@ PREPARATIONS = [
     ([("ethanol", 0.62), ("water", 0.38)], "mass", 303.15),
     ([("ethanol", 0.45), ("isopropyl alcohol", 0.18), ("water", 0.37)], "mass", 306.0),
     ([("67-63-0", 1.0)], "volume", 293.15),
+    # glycerol has no Dortmund groups: this liquid goes through original UNIFAC
+    ([("glycerol", 0.1), ("ethanol", 0.6), ("water", 0.3)], "mass", 305.15),
     ([("water", 1.0)], "volume", 305.15),
 ]
 
@@ -114,6 +116,7 @@ def test_cold_then_warm_cache_gives_identical_results(sandbox, reference, monkey
     written = _files(sandbox)
     kinds = {p.name.split("-")[0] for p in written}
     assert {"substance", "vapour", "liquid", "unifac"} <= kinds
+    assert {a.methods[0].split(" ")[0] for a in expected} >= {"modified", "UNIFAC"}
 
     _forget()
 

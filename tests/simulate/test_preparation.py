@@ -6,7 +6,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from ignite.physics.vapour import FIRE_DATA_METHODS, UnknownSubstance
+from ignite.physics.vapour import FIRE_DATA_METHODS, UnknownSubstance, activity_model
 from ignite.simulate.notes import Note, worded
 from ignite.simulate.preparation import analyse_preparation
 
@@ -26,7 +26,11 @@ def test_analysis_of_aqueous_isopropanol():
     assert a.saturated_vapour_fraction > a.lfl_fraction  # a wet film is above the LFL
     assert a.film_temperature_K == 305.15
     assert any("Liaw" in m for m in a.methods)
-    assert any("UNIFAC" in m for m in a.methods)
+    assert a.methods[0].startswith("modified UNIFAC (Dortmund")
+    assert any("isopropanol vapour pressure: DIPPR 101" in m for m in a.methods)
+    assert a.activity_coefficients == activity_model((ISOPROPANOL, WATER), "dortmund")(
+        305.15, a.mole_fractions
+    )
 
 
 def test_non_volatile_active_is_left_out_and_named():
@@ -45,6 +49,20 @@ def test_component_without_flammability_data_is_noted_not_guessed():
     assert a.flammable == (False, True, False)
     assert Note.of("component-not-fuel", name="glycerol", sources=FIRE_DATA_METHODS) in a.notes
     assert any(note.startswith("glycerol: no LFL") for note in worded(a.notes))
+
+
+def test_a_liquid_with_a_component_outside_the_dortmund_table_says_which_model():
+    # glycerol has no modified UNIFAC (Dortmund) groups: the liquid uses original UNIFAC
+    a = analyse_preparation([("glycerol", 0.1), ("ethanol", 0.6), ("water", 0.3)], "mass", 305.15)
+    assert a.methods[0].startswith("UNIFAC (original")
+    assert "no modified UNIFAC (Dortmund) groups for glycerol" in a.methods[0]
+    assert a.activity_coefficients == activity_model(a.cas, "original")(305.15, a.mole_fractions)
+
+
+def test_a_single_component_has_no_activity_model():
+    a = analyse_preparation([("isopropanol", 1.0)], "volume", 293.15)
+    assert a.activity_coefficients == (1.0,)
+    assert a.methods[0] == "single component: activity coefficient 1"
 
 
 def test_water_alone_has_no_flammable_vapour():
