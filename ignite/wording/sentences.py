@@ -813,6 +813,30 @@ def fuel_at_case_oxidant(fuel: str, oxidant: float, case_id: str) -> str:
     return f"{fuel} at {oxidant:.1%} oxidant (case {case_id})"
 
 
+def no_spark_at_voltage(no_spark_voltage_V: float) -> str:
+    """The spark column of a person or trolley at or below the no-spark voltage."""
+    return f"no spark (below {format_si(no_spark_voltage_V, 'V')})"
+
+
+def _ordinal(n: int) -> str:
+    suffix = "th" if 10 <= n % 100 <= 20 else {1: "st", 2: "nd", 3: "rd"}.get(n % 10, "th")
+    return f"{n}{suffix}"
+
+
+def body_impedance_basis(
+    percentile: float, path: str, path_factor: float, hand_to_hand_ohm: float
+) -> str:
+    """Which body impedance the shock current uses: "5th percentile, hand to feet (0.7 × 773 Ω hand to hand)"."""
+    return (
+        f"{_ordinal(round(percentile * 100))} percentile, {path} "
+        f"({path_factor:g} × {format_si(hand_to_hand_ohm, 'Ω')} hand to hand)"
+    )
+
+
+def text_body_impedance(basis: str) -> str:
+    return f"body impedance: IEC 60479-1, {basis}"
+
+
 # --- findings: details and mitigations (findings) --------------------------------------
 
 NO_MATERIAL_BURNS = "No listed material would keep burning at the site's oxidant."

@@ -22,6 +22,7 @@ from ignite.records.results import (
     CaseResult,
     ChargeResult,
     Finding,
+    FloorResult,
     MethodRef,
     PreparationResult,
     Results,
@@ -601,14 +602,34 @@ def _shock_table(results: Results) -> Table:
             format_si(floor.touch_voltage_V, "V") if floor.touch_voltage_V else NO_VALUE,
         ),
         (say.SHOCK_LOWEST_READING, _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
-        (
-            say.SHOCK_BODY,
-            format_si(floor.body_impedance_ohm, "Ω") if floor.body_impedance_ohm else NO_VALUE,
-        ),
+        (say.SHOCK_BODY, _body_impedance(floor)),
         (say.SHOCK_PATH, format_si(floor.shock_path_ohm, "Ω")),
         (say.SHOCK_CURRENT, format_si(floor.shock_current_A, "A")),
     ]
     return Table(headers=(say.SHOCK, ""), rows=tuple(rows), widths=(1.6, 1.6))
+
+
+def _body_impedance(floor: FloorResult) -> str:
+    """The body impedance with its percentile and current path."""
+    if not floor.body_impedance_ohm:
+        return NO_VALUE
+    text = format_si(floor.body_impedance_ohm, "Ω")
+    if floor.body_current_path:
+        basis = say.body_impedance_basis(
+            floor.body_impedance_percentile_fraction,
+            floor.body_current_path,
+            floor.body_path_factor_fraction,
+            floor.body_impedance_hand_to_hand_ohm,
+        )
+        text += f", {basis}"
+    return text
+
+
+def _spark(charge: ChargeResult, no_spark_V: float, lowest_mie_J: float | None) -> str:
+    """The spark energy against the MIE, or that no spark can happen at this voltage."""
+    if charge.body_voltage_V <= no_spark_V:
+        return say.no_spark_at_voltage(no_spark_V)
+    return _against(charge.spark_energy_J, lowest_mie_J, "J")
 
 
 def _charges_table(
@@ -630,7 +651,7 @@ def _charges_table(
                 format_duration(charge.time_constant_s),
                 voltage,
                 format_si(charge.stored_charge_C, "C"),
-                _against(charge.spark_energy_J, lowest_mie_J, "J"),
+                _spark(charge, no_spark_V, lowest_mie_J),
                 format_duration(charge.settle_time_s),
             )
         )
