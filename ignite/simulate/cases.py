@@ -202,10 +202,13 @@ def case_result(
             or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction
         )
 
+    nitrous_oxide = ox.nitrous_oxide_flow > 0.0
+    if nitrous_oxide and at_activation <= enriched:
+        notes.append(sentences.NITROUS_OXIDE_OXIDANT_SIDE)
     triad = Triad(
         # the site's oxidant above the enriched limit, or nitrous oxide (an oxidant the
         # enriched limit on oxygen does not capture) delivered at all
-        oxidant=at_activation > enriched or ox.nitrous_oxide_flow > 0.0,
+        oxidant=at_activation > enriched or nitrous_oxide,
         fuel=fuel_at_activation or bool(sustaining),
         ignition=bool(case.ignition_sources)
         or (largest_spark is not None and mie is not None and largest_spark >= mie),

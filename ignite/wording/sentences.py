@@ -7,6 +7,7 @@ the same thing is said the same way everywhere.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 
 from ignite.records.results import SEVERITIES
@@ -775,6 +776,11 @@ ISOLATED_SUPPLY_SHOCK = (
 
 CLOSED_AIRWAY = "Closed airway: the pocket is taken at room air (no cuff leak assumed)."
 
+NITROUS_OXIDE_OXIDANT_SIDE = (
+    "Nitrous oxide is delivered: it supports burning, so the fire triad counts the oxidant "
+    "side as present although the site's oxidant is not above the enriched limit."
+)
+
 NO_MIE_FOR_FLAMMABLE_COMPONENTS = (
     "no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed"
 )
@@ -869,7 +875,11 @@ def humidity_advice(rh_needed: float | None, table: Sequence[tuple[float, float]
         )
     if rh_needed <= table[0][0]:
         return "Humidity is not the limiting factor here (any RH in the table keeps the voltage low enough)."
-    return f"Keep RH at or above {rh_needed:.0%} (humidity table), where the ventilation plant can hold it."
+    # rounded up to the whole percent: a humidity to hold must not be printed below the need
+    percent = math.ceil(rh_needed * 100 - 1e-6)
+    return (
+        f"Keep RH at or above {percent}% (humidity table), where the ventilation plant can hold it."
+    )
 
 
 def no_spark_target(no_spark_voltage: float) -> str:

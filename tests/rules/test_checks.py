@@ -271,3 +271,4 @@ def test_nitrous_oxide_gives_the_oxidant_side(room_data, assess_data):
     result = assess_data(room_data).cases[0]
     assert result.oxidant_at_activation_fraction < 0.235
     assert result.triad.oxidant
+    assert any("Nitrous oxide" in note for note in result.notes)

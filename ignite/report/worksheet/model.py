@@ -866,9 +866,16 @@ def _voltage_chart(results: Results) -> Chart | None:
         capacitances = {_capacitance_of(results, label) for label, _ in curves}
         # E = ½·C·V² solved for V: the voltage whose spark carries the site MIE. One
         # line per capacitance, highest first; one label for them all, on the top line,
-        # listing the voltages in the order the lines run down the chart.
+        # listing the voltages in the order the lines run down the chart. A line at or
+        # below the no-spark voltage is not drawn: no spark happens there.
         energy_lines = sorted(
-            ((math.sqrt(2 * mie / c), c) for c in capacitances if c is not None and c > 0),
+            (
+                (v, c)
+                for v, c in (
+                    (math.sqrt(2 * mie / c), c) for c in capacitances if c is not None and c > 0
+                )
+                if v > results.no_spark_voltage_V
+            ),
             reverse=True,
         )
         listing = ", ".join(say.voltage_at_capacitance(v, c) for v, c in energy_lines)
