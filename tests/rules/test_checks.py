@@ -272,3 +272,19 @@ def test_nitrous_oxide_gives_the_oxidant_side(room_data, assess_data):
     assert result.oxidant_at_activation_fraction < 0.235
     assert result.triad.oxidant
     assert any("Nitrous oxide" in note for note in result.notes)
+
+
+@pytest.mark.parametrize(("rh", "volts", "warned"), [("70 %", 250.0, False), ("95 %", 250.0, True)])
+def test_high_humidity_reads_the_two_column_table_and_warns_only_outside_it(
+    room_data, assess_data, rh, volts, warned
+):
+    # insulating footwear on vinyl: the voltage is the saturation voltage, 250 V at 65-90 %
+    # RH (ESD Association two-column table; DOD-HDBK-263; memory): below the no-spark
+    # voltage, so no static finding; only above 90 % RH is the table's end value flagged
+    room_data["environment"]["relative_humidity"] = rh
+    room_data["people"][0]["footwear"] = "insulating"
+    results = assess_data(room_data)
+    assert results.people[0].body_voltage_V == pytest.approx(volts)
+    assert results.people[0].spark_energy_J == 0.0
+    assert not any(f.rule.startswith("static.") for f in results.findings)
+    assert any("outside the humidity table" in w for w in results.warnings) == warned
