@@ -31,6 +31,15 @@ def _spark(charge: ChargeResult, no_spark_V: float) -> str:
     return format_si(charge.spark_energy_J, "J")
 
 
+def _case_mie(
+    mie_J: float | None, fuel: str, largest_spark_J: float | None, no_spark_V: float
+) -> str:
+    """The case's MIE against the largest spark, or that no spark can happen in the room."""
+    if largest_spark_J == 0.0:
+        return say.text_case_mie_without_spark(mie_J, fuel, no_spark_V)
+    return say.text_case_mie(mie_J, fuel, largest_spark_J)
+
+
 def _charges(
     title: str, charges: tuple[ChargeResult, ...], label: str, no_spark_V: float
 ) -> list[str]:
@@ -155,7 +164,7 @@ def render_text(results: Results) -> str:
                 case.washout_s,
                 case.stop_before_activation_s,
             ),
-            "  " + say.text_case_mie(case.mie_J, case.mie_fuel, case.largest_spark_J),
+            "  " + _case_mie(case.mie_J, case.mie_fuel, case.largest_spark_J, r.no_spark_voltage_V),
         ]
         if case.preparation and not case.prep_flammable:
             out.append("  " + say.text_prep_not_flammable(case.preparation))

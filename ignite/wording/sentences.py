@@ -824,6 +824,21 @@ def no_spark_at_voltage(no_spark_voltage_V: float) -> str:
     return f"no spark (below {format_si(no_spark_voltage_V, 'V')})"
 
 
+def no_static_spark(no_spark_voltage_V: float) -> str:
+    """A case's spark comparison when no person or trolley is above the no-spark voltage."""
+    return f"no static spark (every person and trolley at or below {format_si(no_spark_voltage_V, 'V')})"
+
+
+NO_SPARK = "no spark"
+
+
+def text_case_mie_without_spark(mie_J: float | None, fuel: str, no_spark_voltage_V: float) -> str:
+    return (
+        f"MIE at the site {format_si(mie_J, 'J')} ({fuel or TEXT_NO_FUEL}); "
+        f"{no_static_spark(no_spark_voltage_V)}"
+    )
+
+
 def _ordinal(n: int) -> str:
     suffix = "th" if 10 <= n % 100 <= 20 else {1: "st", 2: "nd", 3: "rd"}.get(n % 10, "th")
     return f"{n}{suffix}"

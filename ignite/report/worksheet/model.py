@@ -454,7 +454,10 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         )
     spark = results.largest_spark_J if results.largest_spark_J is not None else case.largest_spark_J
     mie_label = say.mie_at_activation(case.mie_fuel)
-    if case.mie_J is not None and spark is not None:
+    if case.mie_J is not None and spark == 0.0:
+        no_spark = say.no_static_spark(results.no_spark_voltage_V)
+        rows.append((mie_label, format_si(case.mie_J, "J"), no_spark, say.NO_SPARK))
+    elif case.mie_J is not None and spark is not None:
         mie_text, spark_text = format_against_limit(case.mie_J, spark, "J")
         rows.append(
             (
