@@ -70,7 +70,9 @@ def _context(scope: Scope, charge: ChargeResult) -> Context:
         "leak_mitigation_no_spark": _leak_advice(scope, charge, no_spark, no_spark_target),
     }
     if v_mie is not None and mie is not None:
-        context["rh_advice_mie"] = humidity_advice(scope, v_mie)
+        # no spark at or below the no-spark voltage, whatever the MIE: humidity that keeps
+        # the voltage below either is enough to keep a spark from reaching the MIE
+        context["rh_advice_mie"] = humidity_advice(scope, max(v_mie, no_spark))
         # aim for no spark at all; say what merely keeps the spark below the MIE as well
         advice = _leak_advice(scope, charge, no_spark, no_spark_target)
         r_mie = electrostatics.max_leak_resistance(v_mie, gen) - res.floor.max_ohm

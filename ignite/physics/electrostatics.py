@@ -24,6 +24,7 @@ __all__ = [
     "saturation_voltage",
     "settle_time",
     "spark_energy",
+    "spark_energy_if_sparking",
     "stored_charge",
     "time_constant",
     "voltage_for_energy",
@@ -46,8 +47,8 @@ def _log_between(x: float, x0: float, y0: float, x1: float, y1: float) -> float:
     """y at x on the straight line through (x0, ln y0) and (x1, ln y1)."""
     if x == x0:
         return y0
-    if x == x1:
-        return y1
+    if x == x1 or y0 == y1:
+        return y1  # a flat segment holds its value exactly
     fraction = (x - x0) / (x1 - x0)
     return math.exp(math.log(y0) + fraction * (math.log(y1) - math.log(y0)))
 
@@ -67,19 +68,23 @@ def saturation_voltage(rh: float, table: Sequence[tuple[float, float]]) -> tuple
     Returns (saturation voltage [V], clamped).
 
     Worked example (the ESD industry's table of typical body voltages, walking on
-    a vinyl floor: 12 kV at 10 % RH, 5 kV at 40 %, 3 kV at 55 %; at 28 % RH the
+    a vinyl floor: 12 kV at 10 % RH, 5 kV at 40 %, 3 kV at 55 % (published), and
+    250 V in the 65-90 % RH column of its two-column form (memory); at 28 % RH the
     interpolation gives about 7.1 kV; at 5 % RH the table says nothing, so 12 kV
-    is returned with the clamp flag):
+    is returned with the clamp flag; 75 % RH lies in the flat high-humidity column):
 
-    >>> vinyl = [(0.10, 12e3), (0.40, 5e3), (0.55, 3e3)]
+    >>> vinyl = [(0.10, 12e3), (0.40, 5e3), (0.55, 3e3), (0.65, 250.0), (0.90, 250.0)]
     >>> v, clamped = saturation_voltage(0.28, vinyl)
     >>> round(v), clamped
     (7097, False)
     >>> saturation_voltage(0.05, vinyl)
     (12000.0, True)
+    >>> saturation_voltage(0.75, vinyl)
+    (250.0, False)
 
     Reference: typical electrostatic voltages against RH, as tabulated by the ESD
-    industry (e.g. ESD Association fundamentals); DOD-HDBK-263 for a two-column form.
+    industry (e.g. ESD Association fundamentals); DOD-HDBK-263 for the two-column form
+    (10-25 % and 65-90 % RH).
     """
     points = _check_curve(table)
     x = float(rh)
@@ -109,12 +114,15 @@ def min_rh_for_voltage(v_limit: float, table: Sequence[tuple[float, float]]) -> 
     table's highest RH leaves the voltage above the limit.
 
     Worked example (vinyl floor, ESD industry table as in `saturation_voltage`:
-    5 kV is read at 40 % RH; 500 V is not reached within the table):
+    5 kV is read at 40 % RH; 500 V at about 62 % RH; 200 V is not reached within
+    the table, whose highest-humidity column gives 250 V):
 
-    >>> vinyl = [(0.10, 12e3), (0.40, 5e3), (0.55, 3e3)]
+    >>> vinyl = [(0.10, 12e3), (0.40, 5e3), (0.55, 3e3), (0.65, 250.0), (0.90, 250.0)]
     >>> round(min_rh_for_voltage(5e3, vinyl), 6)
     0.4
-    >>> min_rh_for_voltage(500.0, vinyl) is None
+    >>> round(min_rh_for_voltage(500.0, vinyl), 3)
+    0.622
+    >>> min_rh_for_voltage(200.0, vinyl) is None
     True
 
     Reference: as for `saturation_voltage`.
@@ -239,6 +247,39 @@ def spark_energy(capacitance: float, voltage: float) -> float:
     Reference: energy of a charged capacitor; IEC TS 60079-32-1 (spark discharges).
     """
     return 0.5 * capacitance * voltage * voltage
+
+
+def spark_energy_if_sparking(capacitance: float, voltage: float, v_no_spark: float) -> float:
+    """Energy of the spark a charged conductor can give: none at or below the no-spark voltage.
+
+        E = ½ · C · V²   when V > V_ns;   E = 0   when V <= V_ns
+
+    Below the Paschen minimum of air no gap breaks down, so no spark happens and there is
+    no energy to compare with an MIE. Above it the whole stored energy is counted (a real
+    spark leaves some charge behind): the larger figure, the safe side.
+
+    capacitance : C [F];  voltage : V [V]
+    v_no_spark : voltage at or below which a conductor cannot spark V_ns [V] (> 0; the
+        Paschen minimum of air, ~330 V)
+    Returns E [J].
+
+    Worked example (a 300 pF trolley at 300 V stores 13.5 µJ, but 300 V is below the
+    ~330 V Paschen minimum of air, so no spark; at 10 kV the IEC 61000-4-2 150 pF body
+    gives its 7.5 mJ):
+
+    >>> spark_energy_if_sparking(300e-12, 300.0, 330.0)
+    0.0
+    >>> round(spark_energy_if_sparking(150e-12, 10e3, 330.0) * 1e3, 9)
+    7.5
+
+    Reference: energy of a charged capacitor; Paschen's law for the no-spark voltage;
+    IEC TS 60079-32-1 (spark discharges).
+    """
+    if v_no_spark <= 0.0 or math.isnan(voltage):
+        raise ValueError("v_no_spark must be > 0 and the voltage a number")
+    if abs(voltage) <= v_no_spark:
+        return 0.0
+    return spark_energy(capacitance, voltage)
 
 
 def voltage_for_energy(energy: float, capacitance: float) -> float:

@@ -13,7 +13,7 @@ import math
 from collections.abc import Sequence
 from itertools import pairwise
 
-__all__ = ["body_impedance", "shock_current"]
+__all__ = ["body_impedance", "path_impedance", "shock_current"]
 
 
 def _check_table(table: Sequence[tuple[float, float]], what: str) -> list[tuple[float, float]]:
@@ -33,9 +33,12 @@ def body_impedance(
 ) -> tuple[float, bool]:
     """Total body impedance at a touch voltage, interpolated in an IEC 60479-1 table.
 
-    Between table points (U_i, Z_i) and (U_j, Z_j), ln Z is linear in U:
+    Between table points (U_i, Z_i) and (U_j, Z_j), ln Z is linear in U (log-linear):
 
         Z(U) = Z_i · (Z_j / Z_i) ^ ((U − U_i) / (U_j − U_i))
+
+    Where Z falls with U, this curve lies below the straight chord between the points:
+    a lower impedance than linear interpolation, so a higher current (the safe side).
 
     Outside the table the nearest end value is returned and the second element is
     True ('clamped'): the caller must say that the touch voltage lies outside the
@@ -47,19 +50,20 @@ def body_impedance(
         the table's business (rules/).
     Returns (impedance [Ω], clamped).
 
-    Worked example (IEC 60479-1 Table 1 as quoted in the project's physics guide:
-    5th percentile, hand to hand, dry, large contact area: 1200 Ω at 100 V, 1000 Ω
-    at 220 V; a 230 V touch lies above this two-point table, so it is clamped):
+    Worked example (IEC 60479-1:2005 Table 1, 5th percentile, hand to hand, dry,
+    large contact area, memory: 775 Ω at 225 V and 700 Ω at 400 V; a 230 V touch
+    lies between them, at about 773 Ω; 20 V lies below the table's 25 V, so clamped):
 
-    >>> body_impedance(220.0, [(100.0, 1200.0), (220.0, 1000.0)])
-    (1000.0, False)
-    >>> z, clamped = body_impedance(160.0, [(100.0, 1200.0), (220.0, 1000.0)])
+    >>> table = [(25.0, 1750.0), (225.0, 775.0), (400.0, 700.0)]
+    >>> body_impedance(225.0, table)
+    (775.0, False)
+    >>> z, clamped = body_impedance(230.0, table)
     >>> round(z, 1), clamped
-    (1095.4, False)
-    >>> body_impedance(230.0, [(100.0, 1200.0), (220.0, 1000.0)])
-    (1000.0, True)
+    (772.7, False)
+    >>> body_impedance(20.0, table)
+    (1750.0, True)
 
-    Reference: IEC 60479-1, Effects of current on human beings and livestock,
+    Reference: IEC 60479-1:2005, Effects of current on human beings and livestock,
     Part 1: General aspects, Table 1 (total body impedance).
     """
     points = _check_table(table, "body impedance")
@@ -74,11 +78,36 @@ def body_impedance(
         if u0 <= u <= u1:
             if u == u0:
                 return z0, False
-            if u == u1:
-                return z1, False
+            if u == u1 or z0 == z1:
+                return z1, False  # a flat segment holds its value exactly
             fraction = (u - u0) / (u1 - u0)
             return math.exp(math.log(z0) + fraction * (math.log(z1) - math.log(z0))), False
     return points[0][1], False  # a one-point table and u equal to its voltage
+
+
+def path_impedance(hand_to_hand: float, path_factor: float) -> float:
+    """Total body impedance on another current path, from the hand-to-hand value.
+
+        Z_path = k · Z_hand-hand
+
+    hand_to_hand : total body impedance hand to hand Z_hand-hand [Ω]
+    path_factor : k [-], the path's impedance as a fraction of hand to hand (> 0)
+    Returns Z_path [Ω].
+
+    Worked example (IEC 60479-1:2005, memory: hand to feet some 10 % to 30 % lower
+    than hand to hand; the 30 % reduction, k = 0.7, is the safe side; 775 Ω hand to
+    hand at 225 V gives 542.5 Ω hand to feet):
+
+    >>> round(path_impedance(775.0, 0.7), 6)
+    542.5
+
+    Reference: IEC 60479-1:2005, total body impedance for other current paths.
+    """
+    if not (math.isfinite(hand_to_hand) and hand_to_hand >= 0.0):
+        raise ValueError("hand-to-hand impedance must be finite and >= 0")
+    if not (math.isfinite(path_factor) and path_factor > 0.0):
+        raise ValueError("path factor must be finite and > 0")
+    return path_factor * hand_to_hand
 
 
 def shock_current(voltage: float, floor_min: float, body: float) -> float:
@@ -92,11 +121,12 @@ def shock_current(voltage: float, floor_min: float, body: float) -> float:
     Returns the current I [A]. Raises ValueError on negative inputs or a zero path.
 
     Worked example (a 230 V touch on a floor at the 50 kΩ lower limit of the
-    IEC 60364-7-710 window, body 1000 Ω from IEC 60479-1 Table 1 at 220 V, 5th
-    percentile: about 4.5 mA, below the ~10 mA let-go threshold of IEC 60479-1):
+    IEC 60364-7-710 window, body 541 Ω hand to feet from IEC 60479-1:2005 Table 1 at
+    230 V, 5th percentile, times 0.7 (memory): about 4.55 mA, below the ~10 mA let-go
+    threshold of IEC 60479-1):
 
-    >>> round(shock_current(230.0, 50e3, 1000.0) * 1e3, 2)
-    4.51
+    >>> round(shock_current(230.0, 50e3, 541.0) * 1e3, 2)
+    4.55
 
     Reference: Ohm's law; IEC 60479-1 for the body impedance and the effects.
     """

@@ -63,6 +63,10 @@ class FloorResult:
     touch_voltage_V: float = 0.0
     supply_system: str = "earthed"
     shock_note: str = ""  # e.g. the isolated-supply (second fault) statement
+    body_impedance_hand_to_hand_ohm: float = 0.0  # IEC 60479-1 table value before the path factor
+    body_impedance_percentile_fraction: float = 0.0  # 0.05: the 5th percentile
+    body_current_path: str = ""  # the path body_impedance_ohm holds, e.g. "hand to feet"
+    body_path_factor_fraction: float = 0.0  # body_impedance_ohm / the hand-to-hand value
 
 
 @dataclass(frozen=True)

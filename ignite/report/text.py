@@ -24,7 +24,25 @@ def _table(headers: list[str], rows: list[list[str]], indent: str = "  ") -> lis
     return lines
 
 
-def _charges(title: str, charges: tuple[ChargeResult, ...], label: str) -> list[str]:
+def _spark(charge: ChargeResult, no_spark_V: float) -> str:
+    """The spark energy, or that no spark can happen at this voltage."""
+    if charge.body_voltage_V <= no_spark_V:
+        return say.no_spark_at_voltage(no_spark_V)
+    return format_si(charge.spark_energy_J, "J")
+
+
+def _case_mie(
+    mie_J: float | None, fuel: str, largest_spark_J: float | None, no_spark_V: float
+) -> str:
+    """The case's MIE against the largest spark, or that no spark can happen in the room."""
+    if largest_spark_J == 0.0:
+        return say.text_case_mie_without_spark(mie_J, fuel, no_spark_V)
+    return say.text_case_mie(mie_J, fuel, largest_spark_J)
+
+
+def _charges(
+    title: str, charges: tuple[ChargeResult, ...], label: str, no_spark_V: float
+) -> list[str]:
     if not charges:
         return []
     rows = [
@@ -37,7 +55,7 @@ def _charges(title: str, charges: tuple[ChargeResult, ...], label: str) -> list[
             format_si(c.time_constant_s, "s"),
             format_si(c.body_voltage_V, "V"),
             format_si(c.stored_charge_C, "C"),
-            format_si(c.spark_energy_J, "J"),
+            _spark(c, no_spark_V),
             format_duration(c.settle_time_s),
         ]
         for c in charges
@@ -101,11 +119,19 @@ def render_text(results: Results) -> str:
             fl.touch_voltage_V, fl.shock_path_ohm, fl.body_impedance_ohm, fl.shock_current_A
         ),
     ]
+    if fl.body_current_path:
+        basis = say.body_impedance_basis(
+            fl.body_impedance_percentile_fraction,
+            fl.body_current_path,
+            fl.body_path_factor_fraction,
+            fl.body_impedance_hand_to_hand_ohm,
+        )
+        out.append(f"  {say.text_body_impedance(basis)}")
     if fl.shock_note:
         out.append(f"  {fl.shock_note}")
     out.append("")
-    out += _charges(say.TEXT_PEOPLE, r.people, say.TEXT_ROLE)
-    out += _charges(say.TEXT_TROLLEYS, r.trolleys, say.TEXT_NAME)
+    out += _charges(say.TEXT_PEOPLE, r.people, say.TEXT_ROLE, r.no_spark_voltage_V)
+    out += _charges(say.TEXT_TROLLEYS, r.trolleys, say.TEXT_NAME, r.no_spark_voltage_V)
     if r.lowest_site_mie_J is not None:
         out += [say.text_lowest_mie(r.lowest_site_mie_J, r.lowest_site_mie_fuel), ""]
     if r.preparations:
@@ -138,7 +164,7 @@ def render_text(results: Results) -> str:
                 case.washout_s,
                 case.stop_before_activation_s,
             ),
-            "  " + say.text_case_mie(case.mie_J, case.mie_fuel, case.largest_spark_J),
+            "  " + _case_mie(case.mie_J, case.mie_fuel, case.largest_spark_J, r.no_spark_voltage_V),
         ]
         if case.preparation and not case.prep_flammable:
             out.append("  " + say.text_prep_not_flammable(case.preparation))

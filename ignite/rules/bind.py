@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 
+from ignite.errors import Problem, RuleFileError
 from ignite.physics import floor, vapour
 from ignite.room.model import Room
 from ignite.rules.bound import (
@@ -73,10 +74,7 @@ def bind(room: Room, book: Rulebook) -> Bound:
     """Every rule value this room needs, read once, with the ids consulted."""
     reader = _Reader(book)
     window = _window(reader, room.floor.criteria, room.room.mains.voltage)
-    shock = ShockModel(
-        body_impedance=_points(reader.entry("body.impedance")),
-        let_go=reader.number("shock.let_go"),
-    )
+    shock = _shock(reader)
     oxygen = OxygenModel(
         ambient=reader.number("oxygen.ambient"),
         enriched_limit=reader.number("oxygen.enriched_limit"),
@@ -141,6 +139,39 @@ def _window(reader: _Reader, criteria: str, supply_voltage: float) -> FloorWindo
         mean_min_readings=int(entry.get("mean_min_readings", 1)),
         system_high=_sourced(entry, "system_high"),
         walking_voltage_high=_sourced(entry, "walking_voltage_high"),
+    )
+
+
+BODY_IMPEDANCE_CURVE = "body.impedance.p{percentile}"
+"""The id of the IEC 60479-1 table at a percentile (5, 50 or 95 in rules/curves.yaml)."""
+
+SHOCK_PATH = "hand to feet"
+"""The current path of a person standing on the floor and touching a live part."""
+
+
+def _shock(reader: _Reader) -> ShockModel:
+    """The body impedance table at the percentile in force, and the path factor to the feet."""
+    percentile = reader.number("body.impedance_percentile")
+    curve_id = BODY_IMPEDANCE_CURVE.format(percentile=round(percentile * 100))
+    if curve_id not in reader.book.entries:
+        setting = reader.book.entries["body.impedance_percentile"]
+        raise RuleFileError(
+            [
+                Problem(
+                    setting.file,
+                    setting.line,
+                    "body.impedance_percentile.value",
+                    f"no body impedance table {curve_id} in rules/ for this percentile",
+                )
+            ]
+        )
+    return ShockModel(
+        body_impedance=_points(reader.entry(curve_id)),
+        let_go=reader.number("shock.let_go"),
+        percentile=percentile,
+        path=SHOCK_PATH,
+        path_factor=reader.number("body.impedance_path_factor"),
+        curve_id=curve_id,
     )
 
 

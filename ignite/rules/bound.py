@@ -50,10 +50,18 @@ class FloorWindow:
 
 @dataclass(frozen=True)
 class ShockModel:
-    """IEC 60479-1 body impedance against touch voltage, and the let-go threshold."""
+    """IEC 60479-1 body impedance against touch voltage, and the let-go threshold.
 
-    body_impedance: tuple[tuple[float, float], ...]  # (V, Ω)
+    The table is hand to hand at one percentile; the shock path of a person standing on
+    the floor is hand to feet, `path_factor` times the hand-to-hand value.
+    """
+
+    body_impedance: tuple[tuple[float, float], ...]  # (V, Ω), hand to hand
     let_go: float  # A
+    percentile: float  # fraction of the population with a lower impedance (0.05: the 5th)
+    path: str  # the current path the shock current is computed for ("hand to feet")
+    path_factor: float  # impedance on `path` as a fraction of hand to hand
+    curve_id: str  # the rule entry of the table
 
 
 @dataclass(frozen=True)

@@ -31,6 +31,14 @@ def room_fuels(room: Room, bound: Bound) -> list[Fuel]:
     return list(found.values())
 
 
+def case_fuels(case: Case, bound: Bound) -> list[Fuel]:
+    """Fuels of the case's own preparation: none for `prep: none` or a prep with no fuel
+    (aqueous); never another case's or the room's stock."""
+    if case.prep is None:
+        return []
+    return list(bound.fuels.get(case.prep.preparation, ()))
+
+
 def lowest_mie(fuels: list[Fuel], oxidant: float, air_fraction: float) -> tuple[float | None, str]:
     """Lowest MIE among fuels at an oxidant fraction, and the fuel that sets it."""
     best: tuple[float | None, str] = (None, "")
@@ -141,7 +149,7 @@ def case_result(
         c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
     )
 
-    mie, mie_fuel = lowest_mie(room_fuels(room, bound), at_activation, ambient)
+    mie, mie_fuel = lowest_mie(case_fuels(case, bound), at_activation, ambient)
 
     materials = bound.materials
     loi = [
@@ -194,9 +202,13 @@ def case_result(
             or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction
         )
 
-    head_neck_open = ox.delivery in OPEN_DELIVERY and near_airway
+    nitrous_oxide = ox.nitrous_oxide_flow > 0.0
+    if nitrous_oxide and at_activation <= enriched:
+        notes.append(sentences.NITROUS_OXIDE_OXIDANT_SIDE)
     triad = Triad(
-        oxidant=at_activation > enriched or head_neck_open,
+        # the site's oxidant above the enriched limit, or nitrous oxide (an oxidant the
+        # enriched limit on oxygen does not capture) delivered at all
+        oxidant=at_activation > enriched or nitrous_oxide,
         fuel=fuel_at_activation or bool(sustaining),
         ignition=bool(case.ignition_sources)
         or (largest_spark is not None and mie is not None and largest_spark >= mie),

@@ -1,4 +1,8 @@
-"""Static charge on people and trolleys: leaky-capacitor charging held by the humidity table."""
+"""Static charge on people and trolleys: leaky-capacitor charging held by the humidity table.
+
+The spark energy recorded is that of a spark that can happen: zero at or below the no-spark
+voltage (the stored charge is recorded whatever the voltage).
+"""
 
 from __future__ import annotations
 
@@ -59,7 +63,9 @@ def charge_state(
         time_constant_s=tau,
         body_voltage_V=voltage,
         stored_charge_C=electrostatics.stored_charge(capacitance, voltage),
-        spark_energy_J=electrostatics.spark_energy(capacitance, voltage),
+        spark_energy_J=electrostatics.spark_energy_if_sparking(
+            capacitance, voltage, model.no_spark_voltage
+        ),
         settle_time_s=electrostatics.settle_time(voltage, tau, model.no_spark_voltage),
         saturation_voltage_V=v_sat,
         generation_limited=model.generation_current * leak < v_sat,

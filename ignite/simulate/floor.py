@@ -1,4 +1,9 @@
-"""The floor: readings against the window in force, and the shock current through the lowest reading."""
+"""The floor: readings against the window in force, and the shock current through the lowest reading.
+
+The body impedance is the IEC 60479-1 hand-to-hand table at the bound percentile (the 5th:
+the low impedance, the high current), log-linear in the touch voltage, times the path
+factor to the feet (the low end of the standard's range: the safe side).
+"""
 
 from __future__ import annotations
 
@@ -32,7 +37,9 @@ def compute_floor(room: Room, bound: Bound) -> FloorResult:
         and stats.mean <= window.mean_low.value
     ):
         passed = False
-    body, extrapolated = shock.body_impedance(mains.voltage, list(bound.shock.body_impedance))
+    model = bound.shock
+    hand_to_hand, extrapolated = shock.body_impedance(mains.voltage, list(model.body_impedance))
+    body = shock.path_impedance(hand_to_hand, model.path_factor)
     current = shock.shock_current(mains.voltage, stats.min, body)
     notes = []
     if mains.system == "isolated":
@@ -58,4 +65,8 @@ def compute_floor(room: Room, bound: Bound) -> FloorResult:
         touch_voltage_V=mains.voltage,
         supply_system=mains.system,
         shock_note=" ".join(notes),
+        body_impedance_hand_to_hand_ohm=hand_to_hand,
+        body_impedance_percentile_fraction=model.percentile,
+        body_current_path=model.path,
+        body_path_factor_fraction=model.path_factor,
     )

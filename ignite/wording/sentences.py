@@ -7,6 +7,7 @@ the same thing is said the same way everywhere.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 
 from ignite.records.results import SEVERITIES
@@ -775,6 +776,11 @@ ISOLATED_SUPPLY_SHOCK = (
 
 CLOSED_AIRWAY = "Closed airway: the pocket is taken at room air (no cuff leak assumed)."
 
+NITROUS_OXIDE_OXIDANT_SIDE = (
+    "Nitrous oxide is delivered: it supports burning, so the fire triad counts the oxidant "
+    "side as present although the site's oxidant is not above the enriched limit."
+)
+
 NO_MIE_FOR_FLAMMABLE_COMPONENTS = (
     "no MIE in rules/fuels.yaml for the flammable components; static ignition not assessed"
 )
@@ -813,6 +819,45 @@ def fuel_at_case_oxidant(fuel: str, oxidant: float, case_id: str) -> str:
     return f"{fuel} at {oxidant:.1%} oxidant (case {case_id})"
 
 
+def no_spark_at_voltage(no_spark_voltage_V: float) -> str:
+    """The spark column of a person or trolley at or below the no-spark voltage."""
+    return f"no spark (below {format_si(no_spark_voltage_V, 'V')})"
+
+
+def no_static_spark(no_spark_voltage_V: float) -> str:
+    """A case's spark comparison when no person or trolley is above the no-spark voltage."""
+    return f"no static spark (every person and trolley at or below {format_si(no_spark_voltage_V, 'V')})"
+
+
+NO_SPARK = "no spark"
+
+
+def text_case_mie_without_spark(mie_J: float | None, fuel: str, no_spark_voltage_V: float) -> str:
+    return (
+        f"MIE at the site {format_si(mie_J, 'J')} ({fuel or TEXT_NO_FUEL}); "
+        f"{no_static_spark(no_spark_voltage_V)}"
+    )
+
+
+def _ordinal(n: int) -> str:
+    suffix = "th" if 10 <= n % 100 <= 20 else {1: "st", 2: "nd", 3: "rd"}.get(n % 10, "th")
+    return f"{n}{suffix}"
+
+
+def body_impedance_basis(
+    percentile: float, path: str, path_factor: float, hand_to_hand_ohm: float
+) -> str:
+    """Which body impedance the shock current uses: "5th percentile, hand to feet (0.7 × 773 Ω hand to hand)"."""
+    return (
+        f"{_ordinal(round(percentile * 100))} percentile, {path} "
+        f"({path_factor:g} × {format_si(hand_to_hand_ohm, 'Ω')} hand to hand)"
+    )
+
+
+def text_body_impedance(basis: str) -> str:
+    return f"body impedance: IEC 60479-1, {basis}"
+
+
 # --- findings: details and mitigations (findings) --------------------------------------
 
 NO_MATERIAL_BURNS = "No listed material would keep burning at the site's oxidant."
@@ -845,7 +890,11 @@ def humidity_advice(rh_needed: float | None, table: Sequence[tuple[float, float]
         )
     if rh_needed <= table[0][0]:
         return "Humidity is not the limiting factor here (any RH in the table keeps the voltage low enough)."
-    return f"Keep RH at or above {rh_needed:.0%} (humidity table), where the ventilation plant can hold it."
+    # rounded up to the whole percent: a humidity to hold must not be printed below the need
+    percent = math.ceil(rh_needed * 100 - 1e-6)
+    return (
+        f"Keep RH at or above {percent}% (humidity table), where the ventilation plant can hold it."
+    )
 
 
 def no_spark_target(no_spark_voltage: float) -> str:

@@ -16,6 +16,7 @@ from ignite.physics.electrostatics import (
     saturation_voltage,
     settle_time,
     spark_energy,
+    spark_energy_if_sparking,
     stored_charge,
     time_constant,
     voltage_for_energy,
@@ -176,3 +177,25 @@ def test_min_rh_round_trip(v_limit: float) -> None:
     else:
         assert rh is not None
         assert saturation_voltage(rh, TABLE)[0] <= v_limit * (1 + 1e-9)
+
+
+@given(
+    st.floats(min_value=1e-12, max_value=1e-9),
+    st.floats(min_value=0.0, max_value=50e3),
+    st.floats(min_value=1.0, max_value=5e3),
+)
+def test_spark_energy_is_zero_at_or_below_the_no_spark_voltage(
+    c: float, v: float, v_ns: float
+) -> None:
+    energy = spark_energy_if_sparking(c, v, v_ns)
+    if v <= v_ns:
+        assert energy == 0.0
+    else:
+        assert energy == spark_energy(c, v) > 0.0
+
+
+def test_spark_energy_if_sparking_rejects_bad_inputs() -> None:
+    with pytest.raises(ValueError):
+        spark_energy_if_sparking(150e-12, 1e3, 0.0)
+    with pytest.raises(ValueError):
+        spark_energy_if_sparking(150e-12, math.nan, 330.0)

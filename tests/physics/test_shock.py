@@ -8,7 +8,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from ignite.physics.shock import body_impedance, shock_current
+from ignite.physics.shock import body_impedance, path_impedance, shock_current
 
 # An invented three-point table, used only to exercise the interpolation.
 TABLE = [(100.0, 1200.0), (220.0, 1000.0), (700.0, 750.0)]
@@ -84,3 +84,21 @@ def test_shock_current_rejects_negative_or_zero_path() -> None:
 def test_a_higher_floor_reading_never_raises_the_current(r1: float, r2: float, body: float) -> None:
     low, high = sorted((r1, r2))
     assert shock_current(230.0, high, body) <= shock_current(230.0, low, body)
+
+
+def test_path_impedance_scales_the_hand_to_hand_value() -> None:
+    assert path_impedance(1000.0, 0.7) == pytest.approx(700.0, rel=1e-15)
+    assert path_impedance(1000.0, 1.0) == 1000.0
+
+
+@pytest.mark.parametrize(
+    ("z", "k"), [(-1.0, 0.7), (math.inf, 0.7), (1000.0, 0.0), (1000.0, math.nan)]
+)
+def test_path_impedance_rejects_bad_inputs(z: float, k: float) -> None:
+    with pytest.raises(ValueError):
+        path_impedance(z, k)
+
+
+def test_a_flat_segment_holds_its_value_exactly() -> None:
+    table = [(500.0, 625.0), (700.0, 575.0), (1000.0, 575.0)]
+    assert body_impedance(850.0, table) == (575.0, False)

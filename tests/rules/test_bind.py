@@ -9,13 +9,17 @@ carries them faithfully and records what it read.
 from __future__ import annotations
 
 import ast
+import shutil
 from pathlib import Path
 
 import pytest
 from conftest import ROOT, SAMPLES, vocabulary
 
+from ignite.errors import RuleFileError
+from ignite.findings.evaluate import known_results
 from ignite.room.load import load_room
 from ignite.rules.bind import bind
+from ignite.rules.rulebook import default_rules_dir, load_rulebook
 
 PACKAGE = ROOT / "ignite"
 
@@ -116,3 +120,33 @@ def test_layers_below_bind_never_read_the_rule_book(layer):
     for path in sorted((PACKAGE / layer).rglob("*.py")):
         imported = _imported_modules(path)
         assert "ignite.rules.rulebook" not in imported, path
+
+
+def test_body_impedance_is_bound_at_its_percentile_and_path(book, room_data, write_room):
+    # rules/curves.yaml body.impedance.p5 (IEC 60479-1:2005 Table 1, memory), read at the
+    # percentile of rules/electrical.yaml, with the hand-to-feet path factor
+    bound = _bound(book, write_room(room_data))
+    assert bound.shock.percentile == book.value("body.impedance_percentile")
+    assert bound.shock.curve_id == "body.impedance.p5"
+    assert bound.shock.body_impedance == tuple(book.points("body.impedance.p5"))
+    assert bound.shock.path_factor == book.value("body.impedance_path_factor")
+    assert bound.shock.path == "hand to feet"
+    assert {
+        "body.impedance.p5",
+        "body.impedance_percentile",
+        "body.impedance_path_factor",
+    } <= bound.consulted
+    assert "body.impedance.p50" not in bound.consulted
+
+
+def test_a_percentile_without_a_table_is_a_rule_file_error(tmp_path, room_data, write_room):
+    rules = tmp_path / "rules"
+    shutil.copytree(default_rules_dir(), rules)
+    path = rules / "electrical.yaml"
+    text = path.read_text(encoding="utf-8")
+    assert "    value: 5 %\n" in text
+    path.write_text(text.replace("    value: 5 %\n", "    value: 7 %\n"), encoding="utf-8")
+    other = load_rulebook(rules, known_results())
+    with pytest.raises(RuleFileError) as caught:
+        _bound(other, write_room(room_data))
+    assert "electrical.yaml" in str(caught.value) and "body.impedance.p7" in str(caught.value)

@@ -22,6 +22,7 @@ from ignite.records.results import (
     CaseResult,
     ChargeResult,
     Finding,
+    FloorResult,
     MethodRef,
     PreparationResult,
     Results,
@@ -453,7 +454,10 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         )
     spark = results.largest_spark_J if results.largest_spark_J is not None else case.largest_spark_J
     mie_label = say.mie_at_activation(case.mie_fuel)
-    if case.mie_J is not None and spark is not None:
+    if case.mie_J is not None and spark == 0.0:
+        no_spark = say.no_static_spark(results.no_spark_voltage_V)
+        rows.append((mie_label, format_si(case.mie_J, "J"), no_spark, say.NO_SPARK))
+    elif case.mie_J is not None and spark is not None:
         mie_text, spark_text = format_against_limit(case.mie_J, spark, "J")
         rows.append(
             (
@@ -601,14 +605,34 @@ def _shock_table(results: Results) -> Table:
             format_si(floor.touch_voltage_V, "V") if floor.touch_voltage_V else NO_VALUE,
         ),
         (say.SHOCK_LOWEST_READING, _against(floor.min_ohm, floor.window_low_ohm, "Ω")),
-        (
-            say.SHOCK_BODY,
-            format_si(floor.body_impedance_ohm, "Ω") if floor.body_impedance_ohm else NO_VALUE,
-        ),
+        (say.SHOCK_BODY, _body_impedance(floor)),
         (say.SHOCK_PATH, format_si(floor.shock_path_ohm, "Ω")),
         (say.SHOCK_CURRENT, format_si(floor.shock_current_A, "A")),
     ]
     return Table(headers=(say.SHOCK, ""), rows=tuple(rows), widths=(1.6, 1.6))
+
+
+def _body_impedance(floor: FloorResult) -> str:
+    """The body impedance with its percentile and current path."""
+    if not floor.body_impedance_ohm:
+        return NO_VALUE
+    text = format_si(floor.body_impedance_ohm, "Ω")
+    if floor.body_current_path:
+        basis = say.body_impedance_basis(
+            floor.body_impedance_percentile_fraction,
+            floor.body_current_path,
+            floor.body_path_factor_fraction,
+            floor.body_impedance_hand_to_hand_ohm,
+        )
+        text += f", {basis}"
+    return text
+
+
+def _spark(charge: ChargeResult, no_spark_V: float, lowest_mie_J: float | None) -> str:
+    """The spark energy against the MIE, or that no spark can happen at this voltage."""
+    if charge.body_voltage_V <= no_spark_V:
+        return say.no_spark_at_voltage(no_spark_V)
+    return _against(charge.spark_energy_J, lowest_mie_J, "J")
 
 
 def _charges_table(
@@ -630,7 +654,7 @@ def _charges_table(
                 format_duration(charge.time_constant_s),
                 voltage,
                 format_si(charge.stored_charge_C, "C"),
-                _against(charge.spark_energy_J, lowest_mie_J, "J"),
+                _spark(charge, no_spark_V, lowest_mie_J),
                 format_duration(charge.settle_time_s),
             )
         )
@@ -845,9 +869,16 @@ def _voltage_chart(results: Results) -> Chart | None:
         capacitances = {_capacitance_of(results, label) for label, _ in curves}
         # E = ½·C·V² solved for V: the voltage whose spark carries the site MIE. One
         # line per capacitance, highest first; one label for them all, on the top line,
-        # listing the voltages in the order the lines run down the chart.
+        # listing the voltages in the order the lines run down the chart. A line at or
+        # below the no-spark voltage is not drawn: no spark happens there.
         energy_lines = sorted(
-            ((math.sqrt(2 * mie / c), c) for c in capacitances if c is not None and c > 0),
+            (
+                (v, c)
+                for v, c in (
+                    (math.sqrt(2 * mie / c), c) for c in capacitances if c is not None and c > 0
+                )
+                if v > results.no_spark_voltage_V
+            ),
             reverse=True,
         )
         listing = ", ".join(say.voltage_at_capacitance(v, c) for v, c in energy_lines)
