@@ -4,15 +4,23 @@ Each volatile component leaves a film at the flux
 
     N_i = k_i · (c_i,surface − c_i,far),    c_i,surface = x_i·γ_i·P_sat,i(T_film) / (R·T_film)
 
-with k_i from the laminar flat plate in the air stream, floored by natural convection
-over the warm film and by steady diffusion for still air (`film_mass_transfer_coefficient`).
-`ignite.simulate.drying` integrates the film and the drape pocket over it in time.
+with k_i from forced (laminar flat plate) and natural convection combined as mixed
+convection, floored by steady diffusion into still air (`film_mass_transfer_coefficient`).
+The natural-convection term is driven by the density difference of the gas at the film
+against the room air, from temperature and composition together: no lift where the
+vapour-laden gas is the heavier. The heat the film draws from the air follows from the
+mass-transfer coefficient by the Chilton–Colburn analogy
+(`heat_transfer_coefficient_chilton_colburn`). `ignite.simulate.film` solves the film's
+temperature from its heat balance; `ignite.simulate.drying` integrates film and drape
+pocket in time.
 
 Units: lengths [m], areas [m²], speeds [m/s], temperatures [K], pressures [Pa],
-diffusivities [m²/s], mass-transfer coefficients [m/s].
+diffusivities [m²/s], mass-transfer coefficients [m/s], heat-transfer coefficients
+[W/(m²·K)], densities [kg/m³], heat capacities [J/(kg·K)].
 
-The coefficients err high (towards fast evaporation): the weight of the vapour, which
-damps natural convection over an alcohol film, is left out.
+Where the gas at the film is denser than the air above it, natural convection is taken
+as absent (a stably layered gas over an upward-facing film still moves a little), so the
+coefficients err low there: towards slow evaporation and long drying times.
 """
 
 from __future__ import annotations
@@ -25,14 +33,21 @@ __all__ = [
     "AIR_MOLAR_MASS",
     "GAS_CONSTANT",
     "STANDARD_GRAVITY",
+    "STEFAN_BOLTZMANN",
+    "air_heat_capacity",
     "air_kinematic_viscosity",
+    "air_thermal_conductivity",
+    "buoyancy_fraction",
     "diffusion_volume",
     "diffusivity_at_temperature",
     "diffusivity_fuller",
     "film_mass_transfer_coefficient",
+    "heat_transfer_coefficient_chilton_colburn",
+    "heat_transfer_coefficient_radiation",
     "mass_transfer_coefficient_mackay_matsugu",
     "mass_transfer_coefficient_still_disc",
     "sherwood_laminar_plate",
+    "sherwood_mixed_convection",
     "sherwood_natural_convection",
 ]
 
@@ -44,6 +59,9 @@ STANDARD_GRAVITY = 9.80665
 
 AIR_MOLAR_MASS = 0.0289586
 """Molar mass of dry air [kg/mol] (Lemmon et al. 2000, as in `chemicals`' air correlations)."""
+
+STEFAN_BOLTZMANN = 5.670374419e-8
+"""σ [W/(m²·K⁴)] (CODATA 2018, exact from h, c and k)."""
 
 # Atomic and molecular diffusion volumes of the Fuller-Schettler-Giddings method
 # (Poling, Prausnitz & O'Connell, The Properties of Gases and Liquids, 5th ed., Table 11-1).
@@ -80,6 +98,51 @@ def air_kinematic_viscosity(temperature: float, pressure: float = STANDARD_PRESS
     molar_density = pressure / (GAS_CONSTANT * temperature)
     viscosity = mu_air_lemmon(temperature, molar_density)
     return float(viscosity) / (molar_density * AIR_MOLAR_MASS)
+
+
+def air_thermal_conductivity(temperature: float, pressure: float = STANDARD_PRESSURE) -> float:
+    """Thermal conductivity of dry air [W/(m·K)], Lemmon & Jacobsen (2004) via `chemicals`.
+
+    Worked example at 300 K: handbook tables give 0.0263 W/(m·K) (Incropera & DeWitt,
+    Table A.4; memory):
+
+    >>> round(air_thermal_conductivity(300.0), 4)
+    0.0264
+
+    Reference: Lemmon & Jacobsen, Int. J. Thermophys. 25 (2004) 21-69.
+    """
+    from chemicals.thermal_conductivity import k_air_lemmon
+
+    molar_density = pressure / (GAS_CONSTANT * temperature)
+    return float(k_air_lemmon(temperature, molar_density))
+
+
+def air_heat_capacity(temperature: float) -> float:
+    """Isobaric heat capacity of dry air as an ideal gas [J/(kg·K)].
+
+    c_p = R·(1 − τ²·∂²α⁰/∂τ²)/M with τ = T_c/T, from the ideal-gas part α⁰ of the
+    Lemmon et al. (2000) equation of state for air, as `chemicals` implements it.
+
+    Worked example at 300 K: handbook tables give 1007 J/(kg·K) (Incropera & DeWitt,
+    Table A.4; memory):
+
+    >>> round(air_heat_capacity(300.0))
+    1005
+
+    Reference: Lemmon, Jacobsen, Penoncello & Friend, J. Phys. Chem. Ref. Data 29 (2000) 331.
+    """
+    from chemicals.air import (
+        lemmon2000_air_d2A0_dtau2,
+        lemmon2000_air_MW,
+        lemmon2000_air_R,
+        lemmon2000_air_T_reducing,
+    )
+
+    if temperature <= 0.0:
+        raise ValueError("temperature must be positive")
+    tau = lemmon2000_air_T_reducing / temperature
+    cv_over_r = -(tau**2) * lemmon2000_air_d2A0_dtau2(tau, 0.0)
+    return float(lemmon2000_air_R * (cv_over_r + 1.0) / (lemmon2000_air_MW * 1e-3))
 
 
 def diffusivity_at_temperature(
@@ -157,7 +220,8 @@ def sherwood_laminar_plate(reynolds: float, schmidt: float) -> float:
     """Average Sherwood number over a flat plate in laminar flow: Sh = 0.664·Re^½·Sc^⅓.
 
     Re = u·L/ν, Sc = ν/D, Sh = k·L/D over the plate length L; valid for Re < 5e5
-    and Sc ≥ 0.6 (the heat-transfer result by the heat-mass analogy).
+    and 0.6 ≤ Sc ≤ 10 (the heat-transfer result by the heat-mass analogy). The
+    correlation is the one `ht` carries (`Nu_horizontal_plate_laminar_Baehr`).
 
     Worked example, air at 0.2 m/s over 0.2 m of film, ν 1.6e-5 m²/s (Re 2500), Sc 1.5:
 
@@ -165,32 +229,89 @@ def sherwood_laminar_plate(reynolds: float, schmidt: float) -> float:
     38.0
 
     Reference: Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 7.34
-    (Pohlhausen's solution).
+    (Pohlhausen's solution); Baehr & Stephan, Heat and Mass Transfer (2013).
     """
-    return 0.664 * math.sqrt(reynolds) * schmidt ** (1 / 3)
+    from ht.conv_external import Nu_horizontal_plate_laminar_Baehr
+
+    if reynolds < 0.0 or schmidt <= 0.0:
+        raise ValueError("Re must not be negative and Sc must be positive")
+    return float(Nu_horizontal_plate_laminar_Baehr(reynolds, schmidt))
 
 
 def sherwood_natural_convection(rayleigh: float) -> float:
-    """Sherwood number for free convection above a warm horizontal surface facing up.
+    """Sherwood number for free convection above a horizontal surface facing up whose
+    gas is lighter than the air above it.
 
         Sh = 0.54·Ra^¼ (Ra ≤ 1e7),  0.15·Ra^⅓ (above)
 
-    Ra = g·β·ΔT·L³/(ν·D) with β = 1/T and L = area/perimeter: the Rayleigh number of
-    the heat-mass analogy. Below Ra ≈ 1e4 the correlation is extrapolated; the
-    diffusion floor then governs.
+    Ra = g·(Δρ/ρ)·L³/(ν·D) with L = area/perimeter: the Rayleigh number of the
+    heat-mass analogy, the buoyancy from temperature and composition together
+    (`buoyancy_fraction`). Below Ra ≈ 1e4 the correlation is extrapolated; the
+    diffusion floor then governs. Ra ≤ 0 (no lift) gives 0. The correlation is the one
+    `ht` carries (`Nu_horizontal_plate_McAdams`, buoyancy-assisted).
 
     Worked example, Ra 1e5 (a 400 cm² patch some 5 K above the room):
 
     >>> round(sherwood_natural_convection(1e5), 2)
     9.6
 
-    Reference: Lloyd & Moran, J. Heat Transfer 96 (1974) 443; Incropera & DeWitt,
-    Fundamentals of Heat and Mass Transfer, eqs. 9.30-9.31.
+    Reference: McAdams, Heat Transmission, 3rd ed.; Lloyd & Moran, J. Heat Transfer 96
+    (1974) 443; Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eqs. 9.30-9.31.
     """
-    rayleigh = max(rayleigh, 0.0)
-    if rayleigh <= 1e7:
-        return 0.54 * rayleigh**0.25
-    return 0.15 * rayleigh ** (1 / 3)
+    from ht.conv_free_immersed import Nu_horizontal_plate_McAdams
+
+    if rayleigh <= 0.0:
+        return 0.0
+    return float(Nu_horizontal_plate_McAdams(1.0, rayleigh, buoyancy=True))
+
+
+def sherwood_mixed_convection(forced: float, natural: float) -> float:
+    """Sherwood number of mixed (assisting) convection, Sh = (Sh_F³ + Sh_N³)^⅓.
+
+    The Churchill–Usagi blend of the forced and natural limits with exponent 3, as
+    recommended for forced flow over a plate heated from below.
+
+    Worked example: equal limits of 10 give 10·2^⅓:
+
+    >>> round(sherwood_mixed_convection(10.0, 10.0), 2)
+    12.6
+
+    Reference: Churchill & Usagi, AIChE J. 18 (1972) 1121; Incropera & DeWitt,
+    Fundamentals of Heat and Mass Transfer, eq. 9.64.
+    """
+    if forced < 0.0 or natural < 0.0:
+        raise ValueError("Sherwood numbers must not be negative")
+    return float((forced**3 + natural**3) ** (1.0 / 3.0))
+
+
+def buoyancy_fraction(
+    surface_molar_mass: float,
+    surface_temperature: float,
+    air_molar_mass: float,
+    air_temperature: float,
+) -> float:
+    """Relative density deficit of the gas at a film against the air above it, Δρ/ρ [-].
+
+        Δρ/ρ = (ρ_air − ρ_s)/ρ_air = 1 − (M_s·T_air)/(M_air·T_s)
+
+    for ideal gases at one pressure. Positive: the gas at the film is lighter and rises;
+    negative: it is heavier and lies on the film. molar masses [kg/mol] (of the mixture
+    of vapour and air at the surface, and of the room's air); temperatures [K].
+
+    Worked example, pure isopropanol at 32 °C (P_sat 8.4 kPa, 8.3 % of the gas at the
+    surface, M 60.1 g/mol) in dry air at 21 °C: the surface gas is some 5 % denser.
+
+    >>> y = 8.4e3 / 101325
+    >>> m_s = y * 0.0601 + (1 - y) * 0.0289586
+    >>> round(buoyancy_fraction(m_s, 305.15, 0.0289586, 294.15), 3)
+    -0.05
+
+    Reference: ideal-gas law; Gebhart & Pera, Int. J. Heat Mass Transfer 14 (1971) 2025
+    (combined thermal and solutal buoyancy).
+    """
+    if min(surface_molar_mass, surface_temperature, air_molar_mass, air_temperature) <= 0.0:
+        raise ValueError("molar masses and temperatures must be positive")
+    return 1.0 - (surface_molar_mass * air_temperature) / (air_molar_mass * surface_temperature)
 
 
 def mass_transfer_coefficient_still_disc(diffusivity: float, area: float) -> float:
@@ -238,45 +359,111 @@ def film_mass_transfer_coefficient(
     air_speed: float,
     flow_length: float,
     area: float,
-    warmth: float,
+    buoyancy: float,
     still_layer: float = 0.0,
 ) -> tuple[float, str]:
     """Mass-transfer coefficient of one vapour from a film patch [m/s], and what set it.
 
-    k = max(forced, natural, diffusion), then a still-air layer δ in series:
-        forced    Sh = 0.664·Re^½·Sc^⅓ over flow_length (sherwood_laminar_plate)
-        natural   Sh(Ra) over area/perimeter of a square patch, when the film is warmer
-                  than the air (sherwood_natural_convection)
-        diffusion k = 8·D/(π·d) (mass_transfer_coefficient_still_disc)
+    k = max(mixed, diffusion), then a still-air layer δ in series:
+        forced    Sh_F = 0.664·Re^½·Sc^⅓ over flow_length (sherwood_laminar_plate)
+        natural   Sh_N(Ra) over L = area/perimeter of a square patch, Ra = g·(Δρ/ρ)·L³/(ν·D),
+                  only where the gas at the film is lighter than the air (buoyancy > 0)
+        mixed     Sh = (Sh_F³ + Sh_N³)^⅓ (sherwood_mixed_convection), k = Sh·D/L
+        diffusion k = 8·D/(π·d) (mass_transfer_coefficient_still_disc): steady diffusion
+                  into still, unbounded air, which any air movement only adds to; it is
+                  a floor, not a term of the blend
         1/k_eff = 1/k + δ/D
 
-    warmth : β·ΔT = (T_film − T_air)/T_mean [-], the thermal buoyancy of the film.
-    The weight of the vapour, which damps this convection over an alcohol film, is
-    left out, so k errs high: computed drying times are floors and pocket peaks err
-    high, never the other way round.
-    Returns (k [m/s], one of 'forced', 'natural convection', 'diffusion').
+    buoyancy : Δρ/ρ of the gas at the film against the air above it (`buoyancy_fraction`).
+    Returns (k [m/s], regime): 'forced' or 'natural' when that term carries at least
+    90 % of Sh³, 'mixed' otherwise, 'diffusion-limited' when the floor is the larger.
 
     Worked example, ethanol (D 1.37e-5 m²/s) from 400 cm² in air at 0.2 m/s,
-    ν 1.6e-5 m²/s, film 12 K above the room (warmth 0.04). Over so small a patch the
-    warm film's own convection beats the air stream (forced alone gives 2.39e-3 m/s):
+    ν 1.6e-5 m²/s, a gas at the film 4 % lighter than the air:
 
     >>> k, regime = film_mass_transfer_coefficient(1.37e-5, 1.6e-5, 0.2, 0.2, 0.04, 0.04)
     >>> round(k * 1e3, 2), regime
-    (3.22, 'natural convection')
+    (3.61, 'mixed')
+
+    The same gas 1 % heavier than the air gets the forced term alone:
+
+    >>> k, regime = film_mass_transfer_coefficient(1.37e-5, 1.6e-5, 0.2, 0.2, 0.04, -0.01)
+    >>> round(k * 1e3, 2), regime
+    (2.39, 'forced')
     """
+    if diffusivity <= 0.0 or kinematic_viscosity <= 0.0 or area <= 0.0 or flow_length <= 0.0:
+        raise ValueError("diffusivity, viscosity, area and flow length must be positive")
     schmidt = kinematic_viscosity / diffusivity
-    candidates: dict[str, float] = {}
+    forced = 0.0
     if air_speed > 0.0:
-        reynolds = air_speed * flow_length / kinematic_viscosity
-        candidates["forced"] = sherwood_laminar_plate(reynolds, schmidt) * diffusivity / flow_length
-    if warmth > 0.0:
-        length = math.sqrt(area) / 4.0
-        grashof = STANDARD_GRAVITY * warmth * length**3 / kinematic_viscosity**2
-        sherwood = sherwood_natural_convection(grashof * schmidt)
-        candidates["natural convection"] = sherwood * diffusivity / length
-    candidates["diffusion"] = mass_transfer_coefficient_still_disc(diffusivity, area)
-    regime = max(candidates, key=lambda name: candidates[name])
-    k = candidates[regime]
+        forced = sherwood_laminar_plate(air_speed * flow_length / kinematic_viscosity, schmidt)
+    k_forced = forced * diffusivity / flow_length
+    natural = 0.0
+    length = math.sqrt(area) / 4.0
+    if buoyancy > 0.0:
+        grashof = STANDARD_GRAVITY * buoyancy * length**3 / kinematic_viscosity**2
+        natural = sherwood_natural_convection(grashof * schmidt)
+    k_natural = natural * diffusivity / length
+    k_mixed = sherwood_mixed_convection(k_forced, k_natural)
+    k_floor = mass_transfer_coefficient_still_disc(diffusivity, area)
+    if k_floor >= k_mixed:
+        k, regime = k_floor, "diffusion-limited"
+    else:
+        k = k_mixed
+        share = k_forced**3 / k_mixed**3
+        regime = "forced" if share >= 0.9 else "natural" if share <= 0.1 else "mixed"
     if still_layer > 0.0:
         k = 1.0 / (1.0 / k + still_layer / diffusivity)
     return k, regime
+
+
+def heat_transfer_coefficient_chilton_colburn(
+    mass_transfer_coefficient: float,
+    density: float,
+    heat_capacity: float,
+    thermal_diffusivity: float,
+    diffusivity: float,
+) -> float:
+    """Convective heat-transfer coefficient from a mass-transfer coefficient [W/(m²·K)].
+
+        h = k · ρ · c_p · Le^⅔,    Le = α / D
+
+    the Chilton–Colburn analogy (j_H = j_D). mass_transfer_coefficient k [m/s]; density ρ
+    [kg/m³] and heat capacity c_p [J/(kg·K)] of the air; thermal_diffusivity α [m²/s] of
+    the air; diffusivity D [m²/s] of the vapour the k belongs to.
+
+    Worked example, water vapour in air at 20 °C (D 2.5e-5, α 2.1e-5 m²/s, ρ 1.2 kg/m³,
+    c_p 1005 J/(kg·K)), k 5e-3 m/s: 6.03·0.84^⅔ = 5.37 W/(m²·K):
+
+    >>> round(heat_transfer_coefficient_chilton_colburn(5e-3, 1.2, 1005.0, 2.1e-5, 2.5e-5), 2)
+    5.37
+
+    Reference: Chilton & Colburn, Ind. Eng. Chem. 26 (1934) 1183; Incropera & DeWitt,
+    Fundamentals of Heat and Mass Transfer, eq. 6.60.
+    """
+    if min(density, heat_capacity, thermal_diffusivity, diffusivity) <= 0.0:
+        raise ValueError("density, heat capacity and diffusivities must be positive")
+    lewis = thermal_diffusivity / diffusivity
+    return mass_transfer_coefficient * density * heat_capacity * lewis ** (2.0 / 3.0)
+
+
+def heat_transfer_coefficient_radiation(
+    emissivity: float, surface_temperature: float, surroundings_temperature: float
+) -> float:
+    """Radiative exchange of a small grey surface with large surroundings [W/(m²·K)].
+
+        h_r = ε·σ·(T_s + T_∞)·(T_s² + T_∞²),   q = h_r·(T_∞ − T_s)
+
+    emissivity ε [-] of the surface; temperatures [K].
+
+    Worked example, ε 0.95 at 300 K against 293 K: 0.95·5.67e-8·593·175849 W/(m²·K):
+
+    >>> round(heat_transfer_coefficient_radiation(0.95, 300.0, 293.0), 2)
+    5.62
+
+    Reference: Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 1.9.
+    """
+    if not 0.0 <= emissivity <= 1.0:
+        raise ValueError("emissivity must lie in 0-1")
+    t_s, t_inf = surface_temperature, surroundings_temperature
+    return emissivity * STEFAN_BOLTZMANN * (t_s + t_inf) * (t_s**2 + t_inf**2)

@@ -160,6 +160,10 @@ class CaseResult:
     oxygen_curve: tuple[tuple[float, float], ...] = ()  # (s after oxygen stops, oxidant fraction)
     film_curve: tuple[tuple[float, float], ...] = ()  # (s, flammable liquid left, fraction)
     notes: tuple[str, ...] = ()
+    # the film's heat balance and mass transfer (from the end of prepping until dry)
+    film_temperature_min_K: float | None = None  # coldest film temperature until dry
+    mass_transfer_regime: str = ""  # forced | natural | mixed | diffusion-limited, open air
+    mass_transfer_regime_under_drapes: str = ""  # the same once draped ('' if dry by then)
 
 
 @dataclass(frozen=True)

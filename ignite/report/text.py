@@ -179,6 +179,14 @@ def render_text(results: Results) -> str:
                     case.safe_draping_after_s,
                 )
             )
+            out.append(
+                "  "
+                + say.text_film_surface(
+                    case.film_temperature_min_K,
+                    case.mass_transfer_regime,
+                    case.mass_transfer_regime_under_drapes,
+                )
+            )
         out.append(
             f"  {say.CASE_MATERIALS_BURNING}: {say.names_or_none(case.materials_sustain_burning)}"
         )

@@ -52,6 +52,7 @@ DIMENSIONS: dict[str, str] = {
     "time": "[time]",
     "speed": "[length]/[time]",
     "diffusivity": "[length]**2/[time]",
+    "heat transfer coefficient": "[power]/[length]**2/[temperature]",
 }
 
 # The SI unit each dimension is returned in.
@@ -76,6 +77,7 @@ SI_UNITS: dict[str, str] = {
     "time": "second",
     "speed": "meter/second",
     "diffusivity": "meter**2/second",
+    "heat transfer coefficient": "watt/meter**2/kelvin",
 }
 
 # Shown in error messages: one correct way to write each dimension.
@@ -100,6 +102,7 @@ EXAMPLES: dict[str, str] = {
     "time": "3 min",
     "speed": "0.2 m/s",
     "diffusivity": "0.26 cm^2/s",
+    "heat transfer coefficient": "12.6 W/(m^2*K)",
 }
 
 _NOUNS: dict[str, str] = {

@@ -298,6 +298,8 @@ def _prep(reader: _Reader) -> PrepAssumptions:
         skin_temperature_default=reader.number("prep.skin_temperature_default"),
         label_minimum_hairless=reader.optional_number("prep.label_minimum_hairless"),
         label_maximum_hair=reader.optional_number("prep.label_maximum_hair"),
+        tissue_conductance=reader.number("prep.tissue_conductance"),
+        film_emissivity=reader.number("prep.film_emissivity"),
     )
 
 

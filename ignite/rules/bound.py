@@ -124,6 +124,8 @@ class PrepAssumptions:
     skin_temperature_default: float  # K, when a case gives none
     label_minimum_hairless: float | None  # s, the label's drying time on hairless skin
     label_maximum_hair: float | None  # s, the label's longest drying time in hair
+    tissue_conductance: float  # W/(m²·K), from tissue at the skin temperature to the film
+    film_emissivity: float  # of the liquid film, against surroundings at the room's air temperature
 
 
 @dataclass(frozen=True)

@@ -167,6 +167,8 @@ def case_result(
 
     drying = peak = safe = left_draping = left_activation = pocket_activation = None
     film_curve: tuple[tuple[float, float], ...] = ()
+    film_min: float | None = None
+    regime = regime_draped = ""
     fuel_at_activation = False
     prep_flammable = False
     if case.prep is not None and case.prep.preparation in analyses and bound.prep is not None:
@@ -196,6 +198,9 @@ def case_result(
         pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
         prep_flammable = any(analysis.flammable)
         film_curve = outcome.film_curve
+        film_min = outcome.film_temperature_min_K
+        regime = outcome.mass_transfer_regime
+        regime_draped = outcome.mass_transfer_regime_under_drapes
         notes.extend(worded(outcome.notes))
         fuel_at_activation = (
             outcome.pocket_at_activation_fraction_of_lfl >= assumptions.pocket_margin
@@ -248,6 +253,9 @@ def case_result(
         oxygen_curve=curve,
         film_curve=film_curve,
         notes=tuple(notes),
+        film_temperature_min_K=film_min,
+        mass_transfer_regime=regime,
+        mass_transfer_regime_under_drapes=regime_draped,
     )
 
 

@@ -55,8 +55,20 @@ METHODS: tuple[MethodRef, ...] = (
         "IEC 60079-20-1:2010 and NFPA 497:2008 via the chemicals package; vapour pressure by IAPWS-95 (water), DIPPR 101 (isopropanol), Wagner, Poling et al. (ethanol, methanol, acetone) via thermo",
     ),
     MethodRef(
-        "Film evaporation, Sh = 0.664·Re^½·Sc^⅓ with a natural-convection floor",
-        "laminar flat-plate boundary layer (Pohlhausen); diffusivities Welty–Wicks–Wilson, else Fuller–Schettler–Giddings (Poling et al. eq. 11-4.4)",
+        "Film evaporation, mixed convection Sh = (Sh_F³ + Sh_N³)^⅓, Sh_F = 0.664·Re^½·Sc^⅓, floored by diffusion 8D/(πd)",
+        "Pohlhausen laminar plate; Churchill & Usagi (1972); diffusivities Welty–Wicks–Wilson, else Fuller–Schettler–Giddings (Poling et al. eq. 11-4.4)",
+    ),
+    MethodRef(
+        "Natural convection over the film, Sh_N = 0.54·Ra^¼, Ra from Δρ/ρ of temperature and vapour together; none where the gas at the film is the heavier",
+        "McAdams, Heat Transmission (via ht); ideal-gas law",
+    ),
+    MethodRef(
+        "Film temperature from its heat balance: tissue conductance + convection (Chilton–Colburn, h = k·ρ·c_p·Le^⅔) + radiation = Σ N_i·ΔH_vap,i",
+        "Chilton & Colburn (1934); ΔH_vap by DIPPR / VDI-PPDS correlations via thermo",
+    ),
+    MethodRef(
+        "Drape-pocket source bounded above: the film's liquid on the slow timeline evaporating at skin temperature with warm-film convection",
+        "ignite's bounding choice: each figure errs on its safe side",
     ),
     MethodRef("Drape pocket, well mixed: V·dc/dt = source − Q·c", "continuous stirred volume"),
     MethodRef("Oxygen under drapes, C(t) = 0.209 + (C0 − 0.209)·e^(−Q·t/V)", "well-mixed washout"),

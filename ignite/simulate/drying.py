@@ -15,11 +15,18 @@ rules' assumptions as `ignite.rules.bound.PrepAssumptions`.
 Units: volumes [m³], areas [m²], flows [m³/s], speeds [m/s], times [s], temperatures
 [K], pressures [Pa]. Fractions are 0-1.
 
-The model errs towards fast evaporation: the film is held at the skin temperature
-(evaporative cooling, which slows drying, is left out) and the weight of the vapour,
-which damps natural convection over an alcohol film, is left out too. Computed
-drying times are therefore floors, and pocket peaks err high. Water taken up from
-humid air by a film that has none is not modelled.
+The film's temperature comes from its heat balance (evaporative cooling against heat
+from the tissue, the air and radiation; `ignite.simulate.film`), and natural convection
+counts only where the gas at the film is lighter than the air above it. Where that model
+simplifies it errs towards slow evaporation (heat stored in the skin, the slight mixing
+over a stably layered film and a drape warmed by the patient are left out), so drying
+times and the liquid left at draping and activation err high. Slow evaporation would
+make the drape pocket's peak err low, so the pocket is fed by a second, bounding model:
+the liquid left on the slow timeline, evaporating at the fastest rate the film could have
+(held at the warmer of skin and air, with warm-film convection and the vapour's weight
+left out). Each figure thus errs on its own safe side: drying time long, pocket peak
+high, safe draping time late. Water taken up from humid air by a film that has none is
+not modelled.
 """
 
 from __future__ import annotations
@@ -55,7 +62,7 @@ class Film:
 
     volume: float  # m³ of liquid applied
     area: float  # m² of skin it covers
-    temperature: float  # K, the skin's: the film is held at it
+    temperature: float  # K, the skin's: the tissue under the film is held at it
     hair: bool = False  # applied among hair
     pooling: bool = False  # some of it pools, out of the air stream
 
@@ -101,6 +108,9 @@ class PrepOutcome:
     notes: tuple[Note, ...] = ()
     open_air_drying_time_s: float = math.inf  # if the site were never draped
     pocket_peak_time_s: float | None = None  # s from end of prep
+    film_temperature_min_K: float | None = None  # lowest film temperature until dry
+    mass_transfer_regime: str = ""  # what carries the fuel off in open air, end of prepping
+    mass_transfer_regime_under_drapes: str = ""  # the same at draping ('' if dry by then)
 
 
 class _Solution(Protocol):
@@ -240,8 +250,11 @@ class _OpenAir:
     end: float  # s, when the integration stopped (film nearly gone, or the horizon)
     dry: float  # s, when the film reached the dry fraction; inf if never
     gone: bool  # the film was nearly gone before the horizon
+    initial: tuple[float, ...]  # the film at the end of prepping
 
     def film_at(self, t: float) -> list[float]:
+        if t <= 0.0:
+            return list(self.initial)
         return list(self.solution.sol(min(t, self.end)))
 
 
@@ -252,6 +265,7 @@ def _open_air(model: FilmModel, dry_fraction: float) -> _OpenAir:
         end=float(solution.t[-1]),
         dry=float(solution.t_events[0][0]) if len(solution.t_events[0]) else math.inf,
         gone=len(solution.t_events[1]) > 0,
+        initial=tuple(model.initial),
     )
 
 
@@ -342,9 +356,12 @@ def _film_model(
     air: RoomAir,
     pocket: DrapePocket,
     assumptions: PrepAssumptions,
+    *,
+    fastest: bool = False,
 ) -> tuple[FilmModel, list[str]]:
     """The film and pocket equations of this application, and the components whose
-    diffusivity was estimated."""
+    diffusivity was estimated; `fastest`: the upper bound of its evaporation
+    (`FilmModel`)."""
     patches = film_patches(
         film.volume,
         film.area,
@@ -364,19 +381,22 @@ def _film_model(
         patches,
         air_speed=air.speed,
         under_drape_air_speed=assumptions.under_drape_air_speed,
-        film_temperature=film.temperature,
+        skin_temperature=film.temperature,
         air_temperature=air.temperature,
         relative_humidity=air.relative_humidity,
         pocket_volume=pocket.volume,
         pocket_exchange=pocket.exchange,
         diffusivities=diffusivities,
         pressure=air.pressure,
+        tissue_conductance=assumptions.tissue_conductance,
+        emissivity=assumptions.film_emissivity,
+        fastest=fastest,
     )
     return model, estimated
 
 
 def _application_notes(film: Film, assumptions: PrepAssumptions) -> list[Note]:
-    notes = [Note.of("drying-time-is-a-floor")]
+    notes = [Note.of("drying-errs-long")]
     if film.hair:
         notes.append(
             Note.of(
@@ -396,19 +416,72 @@ def _application_notes(film: Film, assumptions: PrepAssumptions) -> list[Note]:
     return notes
 
 
+@dataclass(frozen=True)
+class _Surfaces:
+    """What the film's surface did from the end of prepping until dry."""
+
+    coldest: float | None  # K, lowest temperature of any wet patch
+    open_regime: str  # the fuel's regime in open air at the end of prepping
+    draped_regime: str  # the same at draping ('' when nothing is left then)
+    open_regimes: frozenset[str]  # regimes seen in open air before draping
+
+
+def _surfaces(
+    model: FilmModel, planned: _Planned, plan: DrapePlan, times: Sequence[float]
+) -> _Surfaces:
+    """Film temperature and mass-transfer regime along the planned timeline, up to dry.
+
+    The regime is that of the fuel with most moles at the start, on the first patch in
+    the air stream (else the first patch)."""
+    fuel = max(
+        (i for i in range(model.count) if model.flammable[i] and model.volatile[i]),
+        key=lambda i: model.initial[i],
+        default=None,
+    )
+    main = next((p for p, patch in enumerate(model.patches) if not patch.sheltered), 0)
+    end = min(planned.drying, planned.end)
+    span = sorted({0.0, *(t for t in times if t <= end)})
+    coldest: float | None = None
+    regimes: dict[bool, str] = {}
+    seen: set[str] = set()
+    for t in span:
+        film, far = planned.state_at(t)
+        covered = t >= plan.draping_after
+        for p in range(len(model.patches)):
+            moles = film[p * model.count : (p + 1) * model.count]
+            surface = model.surface(p, moles, far, covered)
+            if surface is None:
+                continue
+            if coldest is None or surface.temperature < coldest:
+                coldest = surface.temperature
+            if p == main and fuel is not None and surface.regimes[fuel]:
+                regimes.setdefault(covered, surface.regimes[fuel])
+                if not covered:
+                    seen.add(surface.regimes[fuel])
+    return _Surfaces(coldest, regimes.get(False, ""), regimes.get(True, ""), frozenset(seen))
+
+
 def _outcome_notes(
-    model: FilmModel, film_at_activation: Sequence[float], drying: float, dry_fraction: float
+    model: FilmModel,
+    at_activation: _State,
+    covered_at_activation: bool,
+    drying: float,
+    dry_fraction: float,
+    open_regimes: frozenset[str],
 ) -> list[Note]:
     notes: list[Note] = []
-    if model.open_regimes - {"forced"}:
+    if open_regimes - {"forced"}:
         notes.append(Note.of("open-air-not-forced"))
+    film_at_activation, far = at_activation
     left_at_activation = model.flammable_left(film_at_activation)
     if left_at_activation > dry_fraction:
         notes.append(
             Note.of(
                 "wet-at-activation",
                 left_fraction=left_at_activation,
-                surface_fraction_of_lfl=model.surface_index(film_at_activation),
+                surface_fraction_of_lfl=model.surface_index(
+                    film_at_activation, far, covered_at_activation
+                ),
             )
         )
     if math.isinf(drying):
@@ -460,13 +533,13 @@ def simulate_prep(
     ...     pooling_volume_fraction=0.5, pooling_area_fraction=0.1,
     ...     diffusivity_reference_temperature=298.15, diffusivities={},
     ...     skin_temperature_default=305.15, label_minimum_hairless=None,
-    ...     label_maximum_hair=None)
+    ...     label_maximum_hair=None, tissue_conductance=12.6, film_emissivity=0.95)
     >>> out = simulate_prep(a, Film(10e-6, 0.04, 305.15), RoomAir(293.15, 0.3, 0.2),
     ...     DrapePlan(180.0, 360.0), DrapePocket(0.030, 10e-3 / 60), assumptions)
     >>> round(out.open_air_drying_time_s), round(out.pocket_peak_fraction_of_lfl, 2)
-    (415, 0.86)
+    (1215, 0.95)
     >>> round(out.safe_draping_after_s)
-    369
+    1047
     """
     if pocket.volume <= 0.0:
         raise ValueError("pocket volume must be positive")
@@ -477,29 +550,48 @@ def simulate_prep(
     dry_fraction = assumptions.dry_fraction
     notes = _application_notes(film, assumptions)
     model, estimated = _film_model(analysis, film, air, pocket, assumptions)
+    fastest = _film_model(analysis, film, air, pocket, assumptions, fastest=True)[0]
     notes.extend(Note.of("diffusivity-estimated", name=name) for name in estimated)
 
+    # Each figure on its safe side: the film dries by its heat balance (slow side), and
+    # the pocket is fed by the liquid left on that timeline evaporating at its fastest.
     open_air = _open_air(model, dry_fraction)
     planned = _as_planned(model, open_air, plan, dry_fraction)
+    fed = _as_planned(fastest, open_air, plan, dry_fraction)
     film_times = _samples(
         0.0, min(planned.end, HORIZON), 120, [plan.draping_after, plan.first_activation_after]
     )
     film_curve = tuple((t, model.flammable_left(planned.state_at(t)[0])) for t in film_times)
+    surfaces = _surfaces(model, planned, plan, film_times)
     at_activation = planned.state_at(plan.first_activation_after)
-    safe = _safe_draping_time(model, open_air, dry_fraction, assumptions.pocket_margin)
-    notes.extend(_outcome_notes(model, at_activation[0], planned.drying, dry_fraction))
+    safe = _safe_draping_time(fastest, open_air, dry_fraction, assumptions.pocket_margin)
+    notes.extend(
+        _outcome_notes(
+            fastest,
+            (at_activation[0], fed.state_at(plan.first_activation_after)[1]),
+            plan.first_activation_after >= plan.draping_after,
+            planned.drying,
+            dry_fraction,
+            surfaces.open_regimes,
+        )
+    )
     return PrepOutcome(
         drying_time_s=planned.drying,
         flammable_left_at_draping_fraction=model.flammable_left(
             planned.state_at(plan.draping_after)[0]
         ),
         flammable_left_at_activation_fraction=model.flammable_left(at_activation[0]),
-        pocket_peak_fraction_of_lfl=planned.peak,
-        pocket_at_activation_fraction_of_lfl=model.pocket_index(at_activation[1]),
+        pocket_peak_fraction_of_lfl=fed.peak,
+        pocket_at_activation_fraction_of_lfl=fastest.pocket_index(
+            fed.state_at(plan.first_activation_after)[1]
+        ),
         safe_draping_after_s=safe,
         film_curve=film_curve,
-        pocket_curve=planned.pocket_curve,
+        pocket_curve=fed.pocket_curve,
         notes=tuple(notes),
         open_air_drying_time_s=open_air.dry,
-        pocket_peak_time_s=planned.peak_time,
+        pocket_peak_time_s=fed.peak_time,
+        film_temperature_min_K=surfaces.coldest,
+        mass_transfer_regime=surfaces.open_regime,
+        mass_transfer_regime_under_drapes=surfaces.draped_regime,
     )

@@ -11,11 +11,23 @@ application, each component's surface concentration, the mass-transfer coefficie
 that `ignite.simulate.drying` integrates. The pocket's vapour is read as a fraction of
 the LFL by Le Chatelier's rule.
 
+The film's temperature is not a state: at every evaluation it is solved, patch by
+patch, from the film's heat balance per unit of wetted area
+
+    G·(T_skin − T) + (h + h_r)·(T_air − T) = Σ_i N_i(T)·ΔH_vap,i(T)
+
+(G the tissue conductance, h by the Chilton–Colburn analogy from the mass-transfer
+coefficients, h_r radiation to surroundings at the room's air temperature), with
+vapour pressures, activity coefficients, enthalpies of vaporisation and the buoyancy of
+the gas at the film all at T. The film holds so little heat (some 0.5 kJ/(m²·K)) that
+it settles within seconds, against minutes of drying.
+
 Units: volumes [m³], areas [m²], flows [m³/s], speeds [m/s], temperatures [K],
 pressures [Pa], amounts [mol], concentrations [mol/m³], diffusivities [m²/s].
 
-The film is held at the skin temperature: evaporative cooling, which slows drying, is
-left out, so the model errs towards fast evaporation.
+The heat stored in the skin is left out (heat comes only through the tissue
+conductance), and surroundings and the pocket's air are taken at the room's air
+temperature, not warmed by the patient: the film errs cold, its drying errs long.
 """
 
 from __future__ import annotations
@@ -25,17 +37,24 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from ignite.physics.evaporation import (
+    AIR_MOLAR_MASS,
     GAS_CONSTANT,
+    air_heat_capacity,
     air_kinematic_viscosity,
+    air_thermal_conductivity,
+    buoyancy_fraction,
     diffusion_volume,
     diffusivity_at_temperature,
     diffusivity_fuller,
     film_mass_transfer_coefficient,
+    heat_transfer_coefficient_chilton_colburn,
+    heat_transfer_coefficient_radiation,
 )
 from ignite.physics.vapour import (
     WATER_CAS,
     SubstanceDataError,
     activity_model_at,
+    enthalpy_of_vaporisation,
     fraction_of_lfl,
     substance,
     vapour_pressure,
@@ -43,7 +62,14 @@ from ignite.physics.vapour import (
 from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.preparation import PreparationAnalysis
 
-__all__ = ["BREAKUP_THICKNESS", "FilmModel", "FilmPatch", "film_diffusivities", "film_patches"]
+__all__ = [
+    "BREAKUP_THICKNESS",
+    "FilmModel",
+    "FilmPatch",
+    "FilmSurface",
+    "film_diffusivities",
+    "film_patches",
+]
 
 BREAKUP_THICKNESS = 1e-7
 """Mean film thickness [m] below which a film no longer covers its patch: it then wets
@@ -111,6 +137,20 @@ def film_patches(
     )
 
 
+_GAMMA_NODE_SPACING = 2.0
+"""Spacing [K] of the temperatures at which a binary's ln γ is tabulated; between them
+ln γ is interpolated linearly in T (UNIFAC's ln γ changes by a few per cent over 2 K)."""
+
+
+@dataclass(frozen=True)
+class FilmSurface:
+    """One patch's liquid surface at one moment: its temperature and what carries its vapour off."""
+
+    temperature: float  # K, from the heat balance
+    fluxes: tuple[float, ...]  # mol/(m²·s) per component, positive leaving the film
+    regimes: tuple[str, ...]  # mass-transfer regime per component ('' when not volatile)
+
+
 class FilmModel:
     """The ODE right-hand sides and bookkeeping for one application."""
 
@@ -121,38 +161,53 @@ class FilmModel:
         *,
         air_speed: float,
         under_drape_air_speed: float,
-        film_temperature: float,
+        skin_temperature: float,
         air_temperature: float,
         relative_humidity: float,
         pocket_volume: float,
         pocket_exchange: float,
         diffusivities: Sequence[float],
         pressure: float,
+        tissue_conductance: float,
+        emissivity: float,
+        fastest: bool = False,
     ) -> None:
+        """fastest: the fastest evaporation the film could have, an upper bound for the
+        drape pocket's source: the film held at the warmer of skin and air (no
+        evaporative cooling), and natural convection driven by that warmth alone (the
+        vapour's weight left out). Otherwise the film's temperature comes from its heat
+        balance and the buoyancy from its temperature and its vapour together."""
+        if tissue_conductance < 0.0:
+            raise ValueError("tissue conductance must not be negative")
         self.cas = analysis.cas
         self.count = len(self.cas)
         self.patches = tuple(patches)
-        self.film_temperature = film_temperature
+        self.skin_temperature = skin_temperature
         self.air_temperature = air_temperature
         self.pressure = pressure
         self.pocket_volume = pocket_volume
         self.pocket_exchange = pocket_exchange
-        self.gamma = activity_model_at(tuple(self.cas), film_temperature)
+        self.tissue_conductance = tissue_conductance
+        self.emissivity = emissivity
+        self.fastest = fastest
+        self.air_speed = air_speed
+        self.under_drape_air_speed = under_drape_air_speed
         self.molar_masses = [substance(c).molar_mass for c in self.cas]
-        self.psat = [vapour_pressure(c, film_temperature) for c in self.cas]
-        self.volatile = [p > 0.0 for p in self.psat]
+        self.volatile = [vapour_pressure(c, skin_temperature) > 0.0 for c in self.cas]
         self.flammable = list(analysis.flammable)
         self.lfls = [lfl if lfl is not None else math.inf for lfl in analysis.lfls]
         self.diffusivities = list(diffusivities)
-        mean_temperature = 0.5 * (film_temperature + air_temperature)
+        mean_temperature = 0.5 * (skin_temperature + air_temperature)
         self.viscosity = air_kinematic_viscosity(mean_temperature, pressure)
+        # Air properties for the heat side, at the mean boundary-layer temperature.
+        self.air_conductivity = air_thermal_conductivity(mean_temperature, pressure)
+        density = pressure * AIR_MOLAR_MASS / (GAS_CONSTANT * mean_temperature)
+        self.rho_cp = density * air_heat_capacity(mean_temperature)
+        self.thermal_diffusivity = self.air_conductivity / self.rho_cp
+        self._gamma_nodes: dict[int, Callable[[float, Sequence[float]], tuple[float, ...]]] = {}
+        self._last_temperature = [skin_temperature] * len(self.patches)
 
         self.room = self._room_concentrations(relative_humidity)
-        # Transfer coefficients [m/s] per patch and component, in open air and under drapes.
-        warmth = (film_temperature - air_temperature) / mean_temperature
-        self.open_regimes: set[str] = set()
-        self.k_open = self._coefficients(air_speed, warmth, covered=False)
-        self.k_covered = self._coefficients(under_drape_air_speed, warmth, covered=True)
         self.molar_volumes = list(analysis.molar_volumes)
         self.initial = self._initial_amounts(analysis.mole_fractions)
         self.flammable_mass0 = self.flammable_mass(self.initial)
@@ -165,33 +220,152 @@ class FilmModel:
             room[self.cas.index(WATER_CAS)] = water_pressure / (GAS_CONSTANT * self.air_temperature)
         return room
 
-    def _coefficients(self, speed: float, warmth: float, *, covered: bool) -> list[list[float]]:
-        """Mass-transfer coefficients [m/s] per patch and component at an air speed.
+    # --- the liquid surface ---------------------------------------------------------
 
-        In open air, the regimes that set a flammable component's coefficient on an
-        unsheltered patch are collected in `open_regimes`.
-        """
-        table: list[list[float]] = []
-        for patch in self.patches:
-            row = []
-            for i in range(self.count):
-                if not self.volatile[i]:
-                    row.append(0.0)
-                    continue
-                k, regime = film_mass_transfer_coefficient(
-                    self.diffusivities[i],
-                    self.viscosity,
-                    0.0 if patch.sheltered else speed,
-                    patch.flow_length,
-                    patch.area,
-                    warmth,
-                    patch.still_layer,
-                )
-                row.append(k)
-                if not covered and not patch.sheltered and self.flammable[i]:
-                    self.open_regimes.add(regime)
-            table.append(row)
-        return table
+    def gammas(self, temperature: float, x: Sequence[float]) -> tuple[float, ...]:
+        """Activity coefficients at a film temperature: ln γ linear in T between nodes."""
+        if self.count != 2:
+            return activity_model_at(tuple(self.cas), temperature)(temperature, x)
+        position = temperature / _GAMMA_NODE_SPACING
+        low = math.floor(position)
+        weight = position - low
+        below = self._gamma_node(low)(low * _GAMMA_NODE_SPACING, x)
+        if weight == 0.0:
+            return below
+        above = self._gamma_node(low + 1)((low + 1) * _GAMMA_NODE_SPACING, x)
+        return tuple(
+            math.exp((1.0 - weight) * math.log(a) + weight * math.log(b))
+            for a, b in zip(below, above, strict=True)
+        )
+
+    def _gamma_node(self, node: int) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
+        found = self._gamma_nodes.get(node)
+        if found is None:
+            found = activity_model_at(tuple(self.cas), node * _GAMMA_NODE_SPACING)
+            self._gamma_nodes[node] = found
+        return found
+
+    def _far_molar_mass(self, far: Sequence[float]) -> float:
+        """Molar mass [kg/mol] of the air above the film (the room's, or the pocket's)."""
+        fractions = [max(c, 0.0) * GAS_CONSTANT * self.air_temperature / self.pressure for c in far]
+        rest = max(1.0 - sum(fractions), 0.0)
+        return rest * AIR_MOLAR_MASS + sum(
+            y * m for y, m in zip(fractions, self.molar_masses, strict=True)
+        )
+
+    def _surface_at(
+        self,
+        p: int,
+        temperature: float,
+        x: Sequence[float],
+        far: Sequence[float],
+        far_molar_mass: float,
+        speed: float,
+    ) -> tuple[float, FilmSurface]:
+        """(heat surplus [W/m²], surface) of patch p at a trial film temperature."""
+        patch = self.patches[p]
+        gammas = self.gammas(temperature, x)
+        rt_film = GAS_CONSTANT * temperature
+        partial = [
+            x[i] * gammas[i] * vapour_pressure(self.cas[i], temperature)
+            if self.volatile[i]
+            else 0.0
+            for i in range(self.count)
+        ]
+        fractions = [p_i / self.pressure for p_i in partial]
+        surface_mass = (1.0 - sum(fractions)) * AIR_MOLAR_MASS + sum(
+            y * m for y, m in zip(fractions, self.molar_masses, strict=True)
+        )
+        if self.fastest:
+            surface_mass = far_molar_mass = AIR_MOLAR_MASS
+        buoyancy = buoyancy_fraction(
+            surface_mass, temperature, far_molar_mass, self.air_temperature
+        )
+        fluxes: list[float] = []
+        regimes: list[str] = []
+        latent = 0.0
+        h_sum, h_count = 0.0, 0
+        for i in range(self.count):
+            if not self.volatile[i]:
+                fluxes.append(0.0)
+                regimes.append("")
+                continue
+            k, regime = film_mass_transfer_coefficient(
+                self.diffusivities[i],
+                self.viscosity,
+                0.0 if patch.sheltered else speed,
+                patch.flow_length,
+                patch.area,
+                buoyancy,
+            )
+            h_sum += heat_transfer_coefficient_chilton_colburn(
+                k, 1.0, self.rho_cp, self.thermal_diffusivity, self.diffusivities[i]
+            )
+            h_count += 1
+            if patch.still_layer > 0.0:
+                k = 1.0 / (1.0 / k + patch.still_layer / self.diffusivities[i])
+            flux = k * (partial[i] / rt_film - far[i])
+            fluxes.append(flux)
+            regimes.append(regime)
+            latent += flux * enthalpy_of_vaporisation(self.cas[i], temperature)
+        h = h_sum / h_count if h_count else 0.0
+        if patch.still_layer > 0.0 and h > 0.0:
+            h = 1.0 / (1.0 / h + patch.still_layer / self.air_conductivity)
+        h_r = heat_transfer_coefficient_radiation(
+            self.emissivity, temperature, self.air_temperature
+        )
+        surplus = (
+            self.tissue_conductance * (self.skin_temperature - temperature)
+            + (h + h_r) * (self.air_temperature - temperature)
+            - latent
+        )
+        return surplus, FilmSurface(temperature, tuple(fluxes), tuple(regimes))
+
+    def surface(
+        self, p: int, moles: Sequence[float], far: Sequence[float], covered: bool
+    ) -> FilmSurface | None:
+        """Patch p's liquid surface with its temperature from the heat balance; None when dry."""
+        from scipy.optimize import brentq
+
+        total = sum(max(n, 0.0) for n in moles)
+        if total <= 0.0:
+            return None
+        x = [max(n, 0.0) / total for n in moles]
+        speed = self.under_drape_air_speed if covered else self.air_speed
+        far_mass = self._far_molar_mass(far)
+        if self.fastest:
+            warmest = max(self.skin_temperature, self.air_temperature)
+            return self._surface_at(p, warmest, x, far, far_mass, speed)[1]
+
+        def surplus(temperature: float) -> float:
+            return self._surface_at(p, temperature, x, far, far_mass, speed)[0]
+
+        guess = self._last_temperature[p]
+        low, high = guess - 0.5, guess + 0.5
+        step = 1.0
+        while surplus(low) < 0.0:
+            low -= step
+            step *= 2.0
+            if low < 150.0:
+                raise ValueError("no film temperature balances its heat")
+        step = 1.0
+        while surplus(high) > 0.0:
+            high += step
+            step *= 2.0
+            if high > 500.0:
+                raise ValueError("no film temperature balances its heat")
+        temperature = float(brentq(surplus, low, high, xtol=1e-7, rtol=1e-12))
+        self._last_temperature[p] = temperature
+        return self._surface_at(p, temperature, x, far, far_mass, speed)[1]
+
+    def patch_fluxes(
+        self, p: int, moles: Sequence[float], far: Sequence[float], covered: bool
+    ) -> list[float]:
+        """Flux of each component from patch p's liquid surface [mol/(m²·s)]."""
+        found = self.surface(p, moles, far, covered)
+        return [0.0] * self.count if found is None else list(found.fluxes)
+
+    # --- bookkeeping ----------------------------------------------------------------
 
     def _initial_amounts(self, mole_fractions: Sequence[float]) -> list[float]:
         """Moles of each component in each patch at the end of prepping."""
@@ -226,23 +400,21 @@ class FilmModel:
             )
         )
 
-    def patch_fluxes(
-        self, p: int, moles: Sequence[float], far: Sequence[float], covered: bool
-    ) -> list[float]:
-        """Flux of each component from patch p's liquid surface [mol/(m²·s)]."""
-        total = sum(max(n, 0.0) for n in moles)
-        if total <= 0.0:
-            return [0.0] * self.count
-        x = [max(n, 0.0) / total for n in moles]
-        gammas = self.gamma(self.film_temperature, x)
-        rt_film = GAS_CONSTANT * self.film_temperature
-        k = self.k_covered[p] if covered else self.k_open[p]
-        return [
-            k[i] * (x[i] * gammas[i] * self.psat[i] / rt_film - far[i]) for i in range(self.count)
-        ]
+    def surfaces(
+        self, film: Sequence[float], far: Sequence[float], covered: bool
+    ) -> list[FilmSurface]:
+        """The liquid surface of every patch that still holds liquid."""
+        found = []
+        for p in range(len(self.patches)):
+            moles = film[p * self.count : (p + 1) * self.count]
+            surface = self.surface(p, moles, far, covered)
+            if surface is not None:
+                found.append(surface)
+        return found
 
-    def surface_index(self, state: Sequence[float]) -> float:
-        """Largest fraction of the LFL in the saturated vapour at any patch's liquid surface."""
+    def surface_index(self, state: Sequence[float], far: Sequence[float], covered: bool) -> float:
+        """Largest fraction of the LFL in the saturated vapour at any patch's liquid surface,
+        at that patch's own temperature."""
         largest = 0.0
         fuels = [i for i in range(self.count) if self.flammable[i]]
         for p in range(len(self.patches)):
@@ -250,9 +422,13 @@ class FilmModel:
             total = sum(moles)
             if total <= 0.0:
                 continue
+            found = self.surface(p, moles, far, covered)
+            t = self.skin_temperature if found is None else found.temperature
             x = [n / total for n in moles]
-            gammas = self.gamma(self.film_temperature, x)
-            vapour = [x[i] * gammas[i] * self.psat[i] / self.pressure for i in fuels]
+            gammas = self.gammas(t, x)
+            vapour = [
+                x[i] * gammas[i] * vapour_pressure(self.cas[i], t) / self.pressure for i in fuels
+            ]
             largest = max(largest, fraction_of_lfl(vapour, [self.lfls[i] for i in fuels]))
         return largest
 

@@ -716,10 +716,44 @@ def note_component_without_flash_point(name: str) -> str:
     return f"{name}: no tabulated flash point; left out of the flash-point sum"
 
 
-def note_drying_time_is_a_floor() -> str:
+def note_drying_errs_long() -> str:
     return (
-        "the model errs towards fast evaporation (no evaporative cooling of the film, no "
-        "damping of convection by the vapour's weight): the drying time is a floor"
+        "the film cools as it evaporates and its vapour's weight damps convection; the "
+        "model errs towards slow drying (a long drying time), and the drape pocket is fed "
+        "at the fastest rate the film could have (a high pocket peak)"
+    )
+
+
+FILM_TEMPERATURE_MIN = "Coldest film until dry"
+MASS_TRANSFER_REGIME = "Vapour carried off by"
+
+MASS_TRANSFER_REGIME_WORDS = {
+    "forced": "the room's air stream",
+    "natural": "natural convection",
+    "mixed": "air stream and natural convection",
+    "diffusion-limited": "diffusion alone",
+    "": "no evaporation",
+}
+"""How the mass-transfer regimes of the record read."""
+
+
+def mass_transfer_regimes(open_air: str, under_drapes: str) -> str:
+    """The regimes in open air (end of prepping) and under the drapes (at draping)."""
+    words = MASS_TRANSFER_REGIME_WORDS
+    if not under_drapes:
+        return f"{words.get(open_air, open_air)} in open air"
+    return (
+        f"{words.get(open_air, open_air)} in open air; "
+        f"{words.get(under_drapes, under_drapes)} under the drapes"
+    )
+
+
+def text_film_surface(coldest_K: float | None, open_air: str, under_drapes: str) -> str:
+    """The terminal table's line on the film: its coldest temperature and the regimes."""
+    coldest = "n/a" if coldest_K is None else f"{coldest_K - 273.15:.1f} °C"
+    return (
+        f"film at its coldest {coldest} until dry; vapour carried off by "
+        f"{mass_transfer_regimes(open_air, under_drapes)}"
     )
 
 
@@ -749,8 +783,8 @@ def note_diffusivity_estimated(name: str) -> str:
 
 def note_open_air_not_forced() -> str:
     return (
-        "in open air, natural convection over the warm film (or diffusion), not the "
-        "room's air stream, set the evaporation rate"
+        "in open air, natural convection or diffusion, not the room's air stream alone, "
+        "set the evaporation rate"
     )
 
 

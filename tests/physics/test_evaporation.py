@@ -8,10 +8,12 @@ import pytest
 
 from ignite.physics.evaporation import (
     air_kinematic_viscosity,
+    buoyancy_fraction,
     diffusion_volume,
     diffusivity_at_temperature,
     diffusivity_fuller,
     film_mass_transfer_coefficient,
+    heat_transfer_coefficient_chilton_colburn,
     mass_transfer_coefficient_mackay_matsugu,
     mass_transfer_coefficient_still_disc,
     sherwood_laminar_plate,
@@ -79,17 +81,43 @@ def test_mackay_matsugu_wind_exponent():
 
 def test_still_air_without_buoyancy_is_diffusion():
     k, regime = film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, 0.0)
-    assert regime == "diffusion"
+    assert regime == "diffusion-limited"
     assert k == pytest.approx(mass_transfer_coefficient_still_disc(1e-5, 0.04))
 
 
-def test_moving_air_is_forced_and_still_air_over_a_warm_film_is_natural():
+def test_moving_air_is_forced_and_still_air_over_a_light_gas_is_natural():
     assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 1.0, 0.2, 0.04, 0.0)[1] == "forced"
-    assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, 0.04)[1] == (
-        "natural convection"
+    assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, 0.04)[1] == "natural"
+    # A gas at the film heavier than the air drives no convection: diffusion is the floor.
+    assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, -0.04)[1] == (
+        "diffusion-limited"
     )
-    # A film cooler than the air drives no convection: diffusion is the floor.
-    assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, -0.04)[1] == "diffusion"
+
+
+def test_comparable_forced_and_natural_terms_are_mixed_and_add_up():
+    forced, _ = film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.1, 0.2, 0.04, 0.0)
+    natural, _ = film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.0, 0.2, 0.04, 0.02)
+    both, regime = film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.1, 0.2, 0.04, 0.02)
+    assert regime == "mixed"
+    assert both == pytest.approx((forced**3 + natural**3) ** (1 / 3))
+    assert both > max(forced, natural)
+
+
+def test_heavier_gas_at_the_film_gets_no_natural_convection():
+    still = film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.3, 0.2, 0.04, 0.0)[0]
+    assert film_mass_transfer_coefficient(1e-5, 1.5e-5, 0.3, 0.2, 0.04, -0.06)[0] == still
+
+
+def test_buoyancy_from_temperature_and_composition():
+    # same gas warmer: lighter; same temperature heavier gas: denser
+    assert buoyancy_fraction(0.029, 310.0, 0.029, 300.0) == pytest.approx(1 - 300 / 310)
+    assert buoyancy_fraction(0.031, 300.0, 0.029, 300.0) < 0.0
+
+
+def test_chilton_colburn_at_unit_lewis_number_is_k_rho_cp():
+    assert heat_transfer_coefficient_chilton_colburn(
+        2e-3, 1.2, 1005.0, 2e-5, 2e-5
+    ) == pytest.approx(2e-3 * 1.2 * 1005.0)
 
 
 def test_still_layer_adds_a_diffusion_resistance():

@@ -47,6 +47,8 @@ PREP_CONDITIONS = (
         skin_temperature_default=305.15,
         label_minimum_hairless=None,
         label_maximum_hair=None,
+        tissue_conductance=12.6,
+        film_emissivity=0.95,
     ),
 )
 

@@ -28,9 +28,10 @@ EXAMPLES: list[tuple[Note, str]] = [
         "dimethyl ether: no tabulated flash point; left out of the flash-point sum",
     ),
     (
-        Note.of("drying-time-is-a-floor"),
-        "the model errs towards fast evaporation (no evaporative cooling of the film, no "
-        "damping of convection by the vapour's weight): the drying time is a floor",
+        Note.of("drying-errs-long"),
+        "the film cools as it evaporates and its vapour's weight damps convection; the "
+        "model errs towards slow drying (a long drying time), and the drape pocket is fed "
+        "at the fastest rate the film could have (a high pocket peak)",
     ),
     (Note.of("no-flammable-component"), "no flammable component"),
     (
@@ -49,8 +50,8 @@ EXAMPLES: list[tuple[Note, str]] = [
     ),
     (
         Note.of("open-air-not-forced"),
-        "in open air, natural convection over the warm film (or diffusion), not the "
-        "room's air stream, set the evaporation rate",
+        "in open air, natural convection or diffusion, not the room's air stream alone, "
+        "set the evaporation rate",
     ),
     (
         Note.of("wet-at-activation", left_fraction=0.4213, surface_fraction_of_lfl=2.449),

@@ -401,6 +401,18 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         )
     elif case.drying_time_s is not None:
         rows.append((say.DRYING_TIME, format_duration(case.drying_time_s), "", ""))
+    if case.drying_time_s is not None and case.mass_transfer_regime:
+        coldest = case.film_temperature_min_K
+        rows.append(
+            (
+                say.FILM_TEMPERATURE_MIN,
+                "" if coldest is None else format_si(coldest, "K"),
+                say.MASS_TRANSFER_REGIME,
+                say.mass_transfer_regimes(
+                    case.mass_transfer_regime, case.mass_transfer_regime_under_drapes
+                ),
+            )
+        )
     if case.pocket_vapour_peak_fraction_of_lfl is not None:
         rows.append(
             (

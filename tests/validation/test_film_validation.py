@@ -1,0 +1,225 @@
+"""The film's heat balance and mass transfer against values from outside the project.
+
+Published values, with source and flag beside each assertion; regression tests of our
+own output live in tests/simulate/.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from itertools import pairwise
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from ignite.physics.evaporation import (
+    air_kinematic_viscosity,
+    diffusion_volume,
+    diffusivity_fuller,
+    film_mass_transfer_coefficient,
+    mass_transfer_coefficient_mackay_matsugu,
+    sherwood_laminar_plate,
+)
+from ignite.physics.vapour import substance
+from ignite.rules.bound import PrepAssumptions
+from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
+from ignite.simulate.film import FilmModel, film_diffusivities, film_patches
+from ignite.simulate.preparation import analyse_preparation
+
+P = 101325.0
+
+ASSUMPTIONS = PrepAssumptions(
+    dry_fraction=0.01,
+    pocket_margin=0.25,
+    under_drape_air_speed=0.0,
+    hair_still_layer=0.005,
+    hair_exposed_fraction=0.5,
+    pooling_volume_fraction=0.5,
+    pooling_area_fraction=0.1,
+    diffusivity_reference_temperature=298.15,
+    diffusivities={},
+    skin_temperature_default=305.15,
+    label_minimum_hairless=None,
+    label_maximum_hair=None,
+    tissue_conductance=12.6,
+    film_emissivity=0.95,
+)
+
+
+# --- a water film with no heat from below sits at the wet-bulb temperature -------------
+
+
+@pytest.fixture(scope="module")
+def water():
+    return analyse_preparation([("water", 1.0)], "volume", 298.15)
+
+
+def _water_film_temperature(water, dry_bulb: float, rh: float, speed: float) -> float:
+    patches = film_patches(
+        1e-6,
+        0.01,
+        hair=False,
+        pooling=False,
+        hair_still_layer=0.0,
+        hair_exposed_fraction=1.0,
+        pooling_volume_fraction=0.0,
+        pooling_area_fraction=0.0,
+    )
+    diffusivities, _ = film_diffusivities(water, ASSUMPTIONS, dry_bulb, P)
+    model = FilmModel(
+        water,
+        patches,
+        air_speed=speed,
+        under_drape_air_speed=0.0,
+        skin_temperature=dry_bulb,
+        air_temperature=dry_bulb,
+        relative_humidity=rh,
+        pocket_volume=0.03,
+        pocket_exchange=0.0,
+        diffusivities=diffusivities,
+        pressure=P,
+        tissue_conductance=0.0,  # no skin heat
+        emissivity=0.0,  # the psychrometric wet bulb: radiation shielded
+    )
+    surface = model.surface(0, model.initial, model.room, covered=False)
+    assert surface is not None
+    return surface.temperature
+
+
+# psychrolib gives the thermodynamic wet bulb (Lewis number 1). The film's heat balance
+# uses Chilton-Colburn, h = k·ρ·c_p·Le^(2/3) with Le ≈ 0.85-0.88 (psychrometric ratio
+# ≈ 0.9), so it reads a psychrometric wet bulb some 6-7 % of the wet-bulb depression
+# lower: within 0.5 K while the depression is under about 7 K, colder beyond. Colder is
+# the slow (safe) side; the points beyond are kept, marked, so the deviation stays seen.
+_BEYOND = pytest.mark.xfail(
+    strict=True, reason="Chilton-Colburn psychrometric ratio ~0.9: 0.6-0.9 K below"
+)
+
+
+@pytest.mark.parametrize(
+    ("dry_bulb_c", "rh"),
+    [
+        (20.0, 0.6),
+        (25.0, 0.5),
+        (15.0, 0.8),
+        (25.0, 0.7),
+        pytest.param(20.0, 0.3, marks=_BEYOND),
+        pytest.param(30.0, 0.2, marks=_BEYOND),
+        pytest.param(35.0, 0.4, marks=_BEYOND),
+    ],
+)
+def test_water_film_without_skin_heat_sits_at_the_wet_bulb(water, dry_bulb_c, rh):
+    import psychrolib
+
+    psychrolib.SetUnitSystem(psychrolib.SI)
+    expected = psychrolib.GetTWetBulbFromRelHum(dry_bulb_c, rh, P)
+    ours = _water_film_temperature(water, dry_bulb_c + 273.15, rh, 3.0) - 273.15
+    # ASHRAE Handbook - Fundamentals (2017) ch. 1 psychrometric equations, via psychrolib
+    # (published): never warmer than the thermodynamic wet bulb (the safe side) ...
+    assert ours <= expected + 0.05
+    # ... and within 0.5 K of it
+    assert ours == pytest.approx(expected, abs=0.5)
+
+
+# --- mass transfer: Mackay & Matsugu, and the forced limit of mixed convection ----------
+
+
+def _coefficients(name: str, speed: float, size: float, buoyancy: float):
+    t = 293.15
+    found = substance(name)
+    d = diffusivity_fuller(t, P, found.molar_mass, diffusion_volume(found.formula))
+    nu = air_kinematic_viscosity(t)
+    return d, nu, film_mass_transfer_coefficient(d, nu, speed, size, size * size, buoyancy)
+
+
+@pytest.mark.parametrize("name", ["water", "ethanol", "isopropanol"])
+@pytest.mark.parametrize("speed", [0.2, 0.5, 1.0])
+def test_pool_without_warmth_within_a_factor_of_two_of_mackay_matsugu(name, speed):
+    d, nu, (ours, regime) = _coefficients(name, speed, 0.5, 0.0)
+    assert regime == "forced"
+    theirs = mass_transfer_coefficient_mackay_matsugu(speed, 0.5, nu / d)
+    # Mackay & Matsugu, Can. J. Chem. Eng. 51 (1973) 434, constants 0.0292, 0.78, -0.11,
+    # -0.67 (memory): pool evaporation without warmth, within a factor of two
+    assert 0.5 <= ours / theirs <= 2.0
+
+
+@pytest.mark.parametrize("buoyancy", [0.01, 0.04, 0.1])
+def test_mixed_convection_tends_to_the_laminar_plate_at_high_air_speed(buoyancy):
+    d, nu, (mixed, regime) = _coefficients("ethanol", 10.0, 0.2, buoyancy)
+    forced = sherwood_laminar_plate(10.0 * 0.2 / nu, nu / d) * d / 0.2
+    # Pohlhausen's laminar plate, Sh = 0.664 Re^1/2 Sc^1/3 (Incropera & DeWitt eq. 7.34,
+    # published): at 10 m/s (Re 1.3e5, laminar) the natural term adds less than 1 %
+    assert regime == "forced"
+    assert mixed == pytest.approx(forced, rel=0.01)
+    assert mixed >= forced
+
+
+# --- drying time: the directions the physics fixes ----------------------------------
+# common practice (and the reason for the issue behind these tests): still air, cool
+# skin, hair, pooling and more liquid all make a film dry more slowly.
+
+
+@pytest.fixture(scope="module")
+def ipa70():
+    return analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
+
+
+def _open_air_drying(analysis, *, speed=0.2, skin=305.15, hair=False, pooling=False, volume=10e-6):
+    out = simulate_prep(
+        analysis,
+        Film(volume, 0.04, skin, hair=hair, pooling=pooling),
+        RoomAir(294.15, 0.3, speed),
+        DrapePlan(1e6, 1e6),
+        DrapePocket(0.030, 10e-3 / 60),
+        ASSUMPTIONS,
+    )
+    return out.open_air_drying_time_s
+
+
+def test_drying_time_strictly_increases_as_the_air_slows(ipa70):
+    # the issue's case: 10 mL of 70 % isopropanol over 400 cm² on 32 °C skin in 21 °C air
+    times = [_open_air_drying(ipa70, speed=v) for v in (0.3, 0.2, 0.1, 0.02, 0.0)]
+    assert all(a < b for a, b in pairwise(times))
+
+
+def test_drying_time_strictly_increases_as_skin_cools_with_hair_pooling_and_volume(ipa70):
+    base = _open_air_drying(ipa70)
+    assert _open_air_drying(ipa70, skin=301.15) > base
+    assert _open_air_drying(ipa70, hair=True) > base
+    assert _open_air_drying(ipa70, pooling=True) > base
+    assert _open_air_drying(ipa70, volume=15e-6) > base
+
+
+@settings(max_examples=3, deadline=None)
+@given(
+    early=st.floats(min_value=0.0, max_value=300.0), wait=st.floats(min_value=30.0, max_value=300.0)
+)
+def test_draping_earlier_never_shortens_the_drying_time(ipa70, early, wait):
+    def drying(draping: float) -> float:
+        return simulate_prep(
+            ipa70,
+            Film(10e-6, 0.04, 305.15),
+            RoomAir(294.15, 0.3, 0.2),
+            DrapePlan(draping, draping + 60.0),
+            DrapePocket(0.030, 10e-3 / 60),
+            ASSUMPTIONS,
+        ).drying_time_s
+
+    assert drying(early) >= drying(early + wait) * (1 - 1e-6)
+
+
+def test_evaporative_cooling_lengthens_drying(ipa70):
+    # physics: a film held at the skin's temperature (vast tissue conductance) dries faster
+    held = dataclasses.replace(ASSUMPTIONS, tissue_conductance=1e9)
+    hot = simulate_prep(
+        ipa70,
+        Film(10e-6, 0.04, 305.15),
+        RoomAir(294.15, 0.3, 0.2),
+        DrapePlan(1e6, 1e6),
+        DrapePocket(0.030, 10e-3 / 60),
+        held,
+    ).open_air_drying_time_s
+    assert hot < _open_air_drying(ipa70)
+    assert math.isfinite(hot)
