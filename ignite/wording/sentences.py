@@ -102,9 +102,11 @@ CAUTIONS = (
     "decision to start the list.",
     CAUTION_LABEL_MINIMUM + " A computed drying time shorter than the label never shortens "
     "the wait; a longer one lengthens it.",
-    "Skin-model trials found prep visibly dry after about 40 to 60 s, yet fires still "
-    "occurred after 3 min in some of them (published, Jones et al. 2017; Ryan et al. 2020): "
-    "a computed time is a floor, never a licence.",
+    "Skin-model trials are recalled to have found prep visibly dry after about 40 to 60 s, "
+    "yet fires still occurred after 3 min in some of them (memory: to be confirmed): a film "
+    "that looks dry is no proof that it is. The computed drying time errs long (the film is "
+    "cooled by its own evaporation, its vapour is heavier than air, the skin's stored heat "
+    "is left out), and it never shortens the label's wait.",
     "Never drape over pooled preparation; remove soaked linen and pads before draping "
     "(common practice).",
     "MIE is the least energy over all mixtures, at a 50 % ignition probability: a margin "
