@@ -727,6 +727,7 @@ def note_drying_errs_long() -> str:
 
 
 FILM_TEMPERATURE_MIN = "Coldest film until dry"
+FILM_TEMPERATURE_MIN_READING = "below skin temperature: the film cools as it evaporates"
 MASS_TRANSFER_REGIME = "Vapour carried off by"
 
 MASS_TRANSFER_REGIME_WORDS = {

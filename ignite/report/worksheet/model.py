@@ -407,10 +407,18 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
             (
                 say.FILM_TEMPERATURE_MIN,
                 "" if coldest is None else format_si(coldest, "K"),
+                say.FILM_TEMPERATURE_MIN_READING,
+                "",
+            )
+        )
+        rows.append(
+            (
                 say.MASS_TRANSFER_REGIME,
                 say.mass_transfer_regimes(
                     case.mass_transfer_regime, case.mass_transfer_regime_under_drapes
                 ),
+                "",
+                "",
             )
         )
     if case.pocket_vapour_peak_fraction_of_lfl is not None:
