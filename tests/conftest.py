@@ -13,6 +13,7 @@ import pytest
 import yaml
 
 from ignite.pipeline import open_rulebook, vocabulary
+from ignite.rules.bound import PrepAssumptions
 from ignite.rules.rulebook import Rulebook
 
 # Keep the substance cache of the test session apart from the developer's own
@@ -82,4 +83,24 @@ def assess_data(book: Rulebook, write_room: Callable[[dict[str, Any]], Path]):  
     return run
 
 
-__all__ = ["BASE_ROOM", "ROOT", "SAMPLES", "vocabulary"]
+__all__ = ["BASE_ROOM", "PREP_ASSUMPTIONS", "ROOT", "SAMPLES", "vocabulary"]
+
+
+PREP_ASSUMPTIONS = PrepAssumptions(
+    dry_fraction=0.01,
+    pocket_margin=0.25,
+    under_drape_air_speed=0.0,
+    hair_still_layer=0.005,
+    hair_exposed_fraction=0.5,
+    pooling_volume_fraction=0.5,
+    pooling_area_fraction=0.1,
+    diffusivity_reference_temperature=298.15,
+    diffusivities={},
+    skin_temperature_default=305.15,
+    label_minimum_hairless=180.0,
+    label_maximum_hair=3600.0,
+    tissue_conductance=12.6,
+    film_emissivity=0.95,
+)
+"""The film model's assumptions as in rules/preparations.yaml, with the diffusivities left to
+the Fuller estimate (tests/simulate/test_drying.py checks them against the rule file)."""

@@ -13,9 +13,9 @@ import sys
 from pathlib import Path
 
 import pytest
+from conftest import PREP_ASSUMPTIONS
 
 from ignite.physics import _cache, vapour
-from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
 from ignite.simulate.preparation import PreparationAnalysis, analyse_preparation
 
@@ -34,22 +34,7 @@ PREP_CONDITIONS = (
     RoomAir(temperature=293.15, relative_humidity=0.3, speed=0.2),
     DrapePlan(draping_after=180.0, first_activation_after=360.0),
     DrapePocket(volume=0.030, exchange=10e-3 / 60),
-    PrepAssumptions(
-        dry_fraction=0.01,
-        pocket_margin=0.25,
-        under_drape_air_speed=0.0,
-        hair_still_layer=0.005,
-        hair_exposed_fraction=0.5,
-        pooling_volume_fraction=0.5,
-        pooling_area_fraction=0.1,
-        diffusivity_reference_temperature=298.15,
-        diffusivities={},
-        skin_temperature_default=305.15,
-        label_minimum_hairless=None,
-        label_maximum_hair=None,
-        tissue_conductance=12.6,
-        film_emissivity=0.95,
-    ),
+    PREP_ASSUMPTIONS,
 )
 
 

@@ -9,6 +9,7 @@ from itertools import pairwise
 from typing import Any
 
 import pytest
+from conftest import PREP_ASSUMPTIONS
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -31,22 +32,7 @@ P = 101325.0
 LPM = 1e-3 / 60.0  # one litre per minute [m³/s]
 
 # The values of rules/preparations.yaml; diffusivities left to the Fuller estimate.
-ASSUMPTIONS = PrepAssumptions(
-    dry_fraction=0.01,
-    pocket_margin=0.25,
-    under_drape_air_speed=0.0,
-    hair_still_layer=0.005,
-    hair_exposed_fraction=0.5,
-    pooling_volume_fraction=0.5,
-    pooling_area_fraction=0.1,
-    diffusivity_reference_temperature=298.15,
-    diffusivities={},
-    skin_temperature_default=305.15,
-    label_minimum_hairless=None,
-    label_maximum_hair=None,
-    tissue_conductance=12.6,
-    film_emissivity=0.95,
-)
+ASSUMPTIONS = PREP_ASSUMPTIONS
 
 CASE: dict[str, Any] = {
     "volume_m3": 10e-6,
@@ -384,3 +370,8 @@ def test_draping_later_never_raises_the_peak(ipa70, case, early, wait):
     later = run(ipa70, **case, draping_after_s=early + wait)
     # 1e-3: the solver's relative tolerance is 1e-5 per step over thousands of seconds.
     assert later.pocket_peak_fraction_of_lfl <= first.pocket_peak_fraction_of_lfl * (1 + 1e-3)
+
+
+def test_the_tests_assumptions_are_the_rule_files(book):
+    """PREP_ASSUMPTIONS (conftest) stays the rule file's values, diffusivities aside."""
+    assert dataclasses.replace(prep_assumptions(book), diffusivities={}) == PREP_ASSUMPTIONS

@@ -11,6 +11,7 @@ import math
 from itertools import pairwise
 
 import pytest
+from conftest import PREP_ASSUMPTIONS
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -23,29 +24,13 @@ from ignite.physics.evaporation import (
     sherwood_laminar_plate,
 )
 from ignite.physics.vapour import substance
-from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
 from ignite.simulate.film import FilmModel, film_diffusivities, film_patches
 from ignite.simulate.preparation import analyse_preparation
 
 P = 101325.0
 
-ASSUMPTIONS = PrepAssumptions(
-    dry_fraction=0.01,
-    pocket_margin=0.25,
-    under_drape_air_speed=0.0,
-    hair_still_layer=0.005,
-    hair_exposed_fraction=0.5,
-    pooling_volume_fraction=0.5,
-    pooling_area_fraction=0.1,
-    diffusivity_reference_temperature=298.15,
-    diffusivities={},
-    skin_temperature_default=305.15,
-    label_minimum_hairless=None,
-    label_maximum_hair=None,
-    tissue_conductance=12.6,
-    film_emissivity=0.95,
-)
+ASSUMPTIONS = PREP_ASSUMPTIONS
 
 
 # --- a water film with no heat from below sits at the wet-bulb temperature -------------
