@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from functools import lru_cache
 
 from ignite.physics import ignition, oxygen
@@ -14,7 +15,14 @@ from ignite.records.results import (
 )
 from ignite.room.model import Case, Room
 from ignite.rules.bound import Bound, Fuel
-from ignite.simulate.drying import DrapePlan, DrapePocket, Film, RoomAir, simulate_prep
+from ignite.simulate.drying import (
+    DrapePlan,
+    DrapePocket,
+    Film,
+    PrepOutcome,
+    RoomAir,
+    simulate_prep,
+)
 from ignite.simulate.notes import worded
 from ignite.simulate.preparation import PreparationAnalysis, analyse_preparation
 from ignite.wording import sentences
@@ -113,13 +121,21 @@ def preparations(
 OPEN_DELIVERY = ("nasal-cannula", "face-mask")
 
 
-def case_result(
-    case: Case,
-    room: Room,
-    bound: Bound,
-    analyses: dict[str, PreparationAnalysis],
-    largest_spark: float | None,
-) -> CaseResult:
+@dataclass(frozen=True)
+class SiteOxygen:
+    """Oxidant at a case's site: steady state under the drapes, and after oxygen stops."""
+
+    steady: float  # fraction while oxygen flows
+    buildup_s: float  # to the enriched limit after oxygen starts (inf: never)
+    washout_s: float  # to the enriched limit after oxygen stops
+    ceiling_stop_s: float  # to the open-delivery ceiling after oxygen stops
+    at_activation: float  # fraction when the ignition source is first used
+    curve: tuple[tuple[float, float], ...]  # (s after oxygen stops, fraction)
+    notes: tuple[str, ...]
+
+
+def site_oxygen(case: Case, bound: Bound) -> SiteOxygen:
+    """The drape pocket's oxidant for a case's delivery, site and pocket (well mixed)."""
     ambient = bound.oxygen.ambient
     enriched = bound.oxygen.enriched_limit
     ox = case.oxygen
@@ -129,82 +145,98 @@ def case_result(
     if ox.delivery in OPEN_DELIVERY and not near_airway:
         notes.append(sentences.open_delivery_away_from_site(ox.delivery, case.site))
     if ox.delivery in OPEN_DELIVERY and near_airway:
-        c_ss = oxygen.pocket_steady_state(
+        steady = oxygen.pocket_steady_state(
             ox.flow, ox.fraction, ox.nitrous_oxide_flow, pocket.exchange, ambient
         )
         total = ox.flow + ox.nitrous_oxide_flow + pocket.exchange
-        buildup = oxygen.buildup_time(enriched, ambient, c_ss, pocket.volume, total)
+        buildup = oxygen.buildup_time(enriched, ambient, steady, pocket.volume, total)
     else:
-        c_ss, buildup = ambient, math.inf
+        steady, buildup = ambient, math.inf
         if ox.delivery == "closed-airway":
             notes.append(sentences.CLOSED_AIRWAY)
-    washout = oxygen.washout_time(c_ss, enriched, pocket.volume, pocket.exchange, ambient)
-    ceiling_stop = oxygen.washout_time(
-        c_ss, bound.oxygen.open_delivery_ceiling, pocket.volume, pocket.exchange, ambient
-    )
-    at_activation = oxygen.fraction_after_stop(
-        c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient
-    )
-    curve = _oxygen_curve(
-        c_ss, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
+    washout = oxygen.washout_time(steady, enriched, pocket.volume, pocket.exchange, ambient)
+    return SiteOxygen(
+        steady=steady,
+        buildup_s=buildup,
+        washout_s=washout,
+        ceiling_stop_s=oxygen.washout_time(
+            steady, bound.oxygen.open_delivery_ceiling, pocket.volume, pocket.exchange, ambient
+        ),
+        at_activation=oxygen.fraction_after_stop(
+            steady, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient
+        ),
+        curve=_oxygen_curve(
+            steady, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
+        ),
+        notes=tuple(notes),
     )
 
-    mie, mie_fuel = lowest_mie(case_fuels(case, bound), at_activation, ambient)
 
-    materials = bound.materials
-    loi = [
-        (name, materials[name.lower()].loi) for name in case.materials if name.lower() in materials
-    ]
-    sustaining = ignition.materials_sustaining(c_ss, loi, bound.loi_allowance)
-    holding = tuple(
-        name
+def _materials(
+    case: Case, bound: Bound, rh: float, oxidant: float
+) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """The case's materials that would keep burning at the site's oxidant, and those that
+    hold charge at the room's RH (names as the room file writes them)."""
+    known = [
+        (name, bound.materials[name.lower()])
         for name in case.materials
-        if name.lower() in materials
-        and ignition.holds_charge(
-            room.environment.relative_humidity, materials[name.lower()].holds_charge_below_rh
-        )
+        if name.lower() in bound.materials
+    ]
+    sustaining = ignition.materials_sustaining(
+        oxidant, [(name, m.loi) for name, m in known], bound.loi_allowance
     )
+    holding = tuple(name for name, m in known if ignition.holds_charge(rh, m.holds_charge_below_rh))
+    return tuple(sustaining), holding
 
-    drying = peak = safe = left_draping = left_activation = pocket_activation = None
-    film_curve: tuple[tuple[float, float], ...] = ()
-    film_min: float | None = None
-    regime = regime_draped = ""
+
+def _drying(
+    case: Case, room: Room, bound: Bound, analyses: dict[str, PreparationAnalysis]
+) -> tuple[PrepOutcome, bool] | None:
+    """The case's prep drying on its own timeline, and whether the prep is flammable; None
+    when the case has no preparation analysed."""
+    if case.prep is None or case.prep.preparation not in analyses or bound.prep is None:
+        return None
+    assumptions = bound.prep
+    analysis = analyses[case.prep.preparation]
+    film_t = case.prep.skin_temperature or assumptions.skin_temperature_default
+    if film_t != analysis.film_temperature_K:
+        prep = next(p for p in room.preparations if p.id == case.prep.preparation)
+        analysis = analyse(prep.components, prep.basis, film_t)
+    outcome = simulate_prep(
+        analysis,
+        Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
+        RoomAir(room.environment.temperature, room.environment.relative_humidity, case.air_speed),
+        DrapePlan(case.draping_after, case.first_activation_after),
+        DrapePocket(case.drape_pocket.volume, case.drape_pocket.exchange),
+        assumptions,
+    )
+    return outcome, any(analysis.flammable)
+
+
+def case_result(
+    case: Case,
+    room: Room,
+    bound: Bound,
+    analyses: dict[str, PreparationAnalysis],
+    largest_spark: float | None,
+) -> CaseResult:
+    enriched = bound.oxygen.enriched_limit
+    ox = case.oxygen
+    site = site_oxygen(case, bound)
+    notes = list(site.notes)
+    at_activation = site.at_activation
+    mie, mie_fuel = lowest_mie(case_fuels(case, bound), at_activation, bound.oxygen.ambient)
+    sustaining, holding = _materials(case, bound, room.environment.relative_humidity, site.steady)
+
+    dried = _drying(case, room, bound, analyses)
+    outcome = dried[0] if dried else None
+    prep_flammable = bool(dried and dried[1])
     fuel_at_activation = False
-    prep_flammable = False
-    if case.prep is not None and case.prep.preparation in analyses and bound.prep is not None:
-        assumptions = bound.prep
-        analysis = analyses[case.prep.preparation]
-        film_t = case.prep.skin_temperature or assumptions.skin_temperature_default
-        if film_t != analysis.film_temperature_K:
-            prep = next(p for p in room.preparations if p.id == case.prep.preparation)
-            analysis = analyse(prep.components, prep.basis, film_t)
-        outcome = simulate_prep(
-            analysis,
-            Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
-            RoomAir(
-                room.environment.temperature, room.environment.relative_humidity, case.air_speed
-            ),
-            DrapePlan(case.draping_after, case.first_activation_after),
-            DrapePocket(pocket.volume, pocket.exchange),
-            assumptions,
-        )
-        drying, peak, safe = (
-            outcome.drying_time_s,
-            outcome.pocket_peak_fraction_of_lfl,
-            outcome.safe_draping_after_s,
-        )
-        left_draping = outcome.flammable_left_at_draping_fraction
-        left_activation = outcome.flammable_left_at_activation_fraction
-        pocket_activation = outcome.pocket_at_activation_fraction_of_lfl
-        prep_flammable = any(analysis.flammable)
-        film_curve = outcome.film_curve
-        film_min = outcome.film_temperature_min_K
-        regime = outcome.mass_transfer_regime
-        regime_draped = outcome.mass_transfer_regime_under_drapes
+    if outcome is not None and bound.prep is not None:
         notes.extend(worded(outcome.notes))
         fuel_at_activation = (
-            outcome.pocket_at_activation_fraction_of_lfl >= assumptions.pocket_margin
-            or outcome.flammable_left_at_activation_fraction > assumptions.dry_fraction
+            outcome.pocket_at_activation_fraction_of_lfl >= bound.prep.pocket_margin
+            or outcome.flammable_left_at_activation_fraction > bound.prep.dry_fraction
         )
 
     nitrous_oxide = ox.nitrous_oxide_flow > 0.0
@@ -222,19 +254,19 @@ def case_result(
         id=case.id,
         procedure=case.procedure,
         site=case.site,
-        oxidant_fraction=c_ss,
-        oxygen_enriched=c_ss > enriched,
-        washout_s=washout,
+        oxidant_fraction=site.steady,
+        oxygen_enriched=site.steady > enriched,
+        washout_s=site.washout_s,
         oxidant_at_activation_fraction=at_activation,
         mie_J=mie,
-        drying_time_s=drying,
-        pocket_vapour_peak_fraction_of_lfl=peak,
-        safe_draping_after_s=safe,
+        drying_time_s=outcome.drying_time_s if outcome else None,
+        pocket_vapour_peak_fraction_of_lfl=outcome.pocket_peak_fraction_of_lfl if outcome else None,
+        safe_draping_after_s=outcome.safe_draping_after_s if outcome else None,
         materials_sustain_burning=sustaining,
         triad=triad,
         mie_fuel=mie_fuel,
-        buildup_s=None if math.isinf(buildup) else buildup,
-        required_stop_s=washout,
+        buildup_s=None if math.isinf(site.buildup_s) else site.buildup_s,
+        required_stop_s=site.washout_s,
         largest_spark_J=largest_spark,
         materials_holding_charge=holding,
         ignition_sources=case.ignition_sources,
@@ -242,20 +274,28 @@ def case_result(
         first_activation_after_s=case.first_activation_after,
         stop_before_activation_s=ox.stop_before_activation,
         delivery=ox.delivery,
-        ceiling_stop_s=ceiling_stop,
+        ceiling_stop_s=site.ceiling_stop_s,
         preparation=case.prep.preparation if case.prep else "",
         prep_flammable=prep_flammable,
         hair=bool(case.prep and case.prep.hair),
         pooling=bool(case.prep and case.prep.pooling),
-        flammable_left_at_draping_fraction=left_draping,
-        flammable_left_at_activation_fraction=left_activation,
-        pocket_at_activation_fraction_of_lfl=pocket_activation,
-        oxygen_curve=curve,
-        film_curve=film_curve,
+        flammable_left_at_draping_fraction=(
+            outcome.flammable_left_at_draping_fraction if outcome else None
+        ),
+        flammable_left_at_activation_fraction=(
+            outcome.flammable_left_at_activation_fraction if outcome else None
+        ),
+        pocket_at_activation_fraction_of_lfl=(
+            outcome.pocket_at_activation_fraction_of_lfl if outcome else None
+        ),
+        oxygen_curve=site.curve,
+        film_curve=outcome.film_curve if outcome else (),
         notes=tuple(notes),
-        film_temperature_min_K=film_min,
-        mass_transfer_regime=regime,
-        mass_transfer_regime_under_drapes=regime_draped,
+        film_temperature_min_K=outcome.film_temperature_min_K if outcome else None,
+        mass_transfer_regime=outcome.mass_transfer_regime if outcome else "",
+        mass_transfer_regime_under_drapes=(
+            outcome.mass_transfer_regime_under_drapes if outcome else ""
+        ),
     )
 
 
