@@ -141,7 +141,7 @@ def test_readings_outside_usual_range_are_warnings() -> None:
         (19, "floor.point_to_ground[2]", "'2 TΩ'"),
         (24, "people[0].capacitance", "'1500 pF'"),
         (31, "cases[0].oxygen.flow", "'20 L/min'"),
-        (35, "cases[0].drape_pocket.volume", "'2 m^3'"),
+        (35, "cases[0].drape_pocket.volume", "'300 L'"),
     ]
     assert len(room.warnings) == len(expected)
     for warning, (line, key, value) in zip(room.warnings, expected, strict=True):
@@ -276,18 +276,18 @@ SINGLE = [
         "people[0].footwear",
         "footwear class (conductive, esd, antistatic, insulating) or a measured resistance",
     ),
-    ("footwear: 40 MΩ", "footwear: -40 MΩ", 31, "people[1].footwear", "above zero"),
-    ("capacitance: 150 pF", "capacitance: 0 pF", 28, "people[0].capacitance", "above zero"),
+    ("footwear: 40 MΩ", "footwear: -40 MΩ", 31, "people[1].footwear", "between 1 Ω and 1000 TΩ"),
+    ("capacitance: 150 pF", "capacitance: 0 pF", 28, "people[0].capacitance", "between 1 pF and 100 nF"),
     ("water: 30 %", "water: 0 %", 42, "preparations[0].components.water", "above 0 %"),
     ("hair: false", 'hair: "no"', 63, "cases[0].prep.hair", "expected true or false"),
-    ("volume: 30 L", "volume: -30 L", 57, "cases[0].drape_pocket.volume", "above zero"),
-    ("flow: 4 L/min", "flow: -4 L/min", 52, "cases[0].oxygen.flow", "of zero or more"),
+    ("volume: 30 L", "volume: -30 L", 57, "cases[0].drape_pocket.volume", "between 1 L and 500 L"),
+    ("flow: 4 L/min", "flow: -4 L/min", 52, "cases[0].oxygen.flow", "between 0 L/min and 100 L/min"),
     (
         "draping_after: 3 min",
         "draping_after: -3 min",
         67,
         "cases[0].draping_after",
-        "time of zero or more",
+        "time between 0 s and 24 h",
     ),
     (
         "delivery: nasal-cannula",
