@@ -180,10 +180,10 @@ BOUNDS: dict[str, Bound] = {
     ),
     "cases[].oxygen.fraction": Bound(
         "fraction",
-        Limits("between 20 % and 100 %", low=0.20, high=1.0),
+        Limits("between 20.9 % and 100 %", low=0.209, high=1.0),
         None,
-        "no gas delivered to a patient is leaner than air (medical air holds 20.4-21.4 % "
-        "oxygen, European Pharmacopoeia; memory); write 21 % when no oxygen is added",
+        "no gas delivered to a patient is leaner than air, 20.9 % oxygen (medical air is "
+        "taken as air); write 21 % when no oxygen is added",
     ),
     "cases[].oxygen.nitrous_oxide_flow": Bound(
         "flow",
