@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 
 from ignite.room.bounds import CELSIUS, Bound
-from ignite.room.units import number_and_unit
+from ignite.room.units import EXAMPLES, number_and_unit
 
 
 def _number(value: float) -> str:
@@ -41,7 +41,8 @@ def bare_number_hint(number: float, shown: str, example_unit: str, bound: Bound)
     "add a unit: '68 degF' (20 °C) if that is Fahrenheit; 68 degC is outside 5-45 degC"
     """
     if not math.isfinite(number):
-        return f"add a unit, e.g. '{shown} {example_unit}'"
+        example = EXAMPLES[bound.dimension]
+        return f"{shown} is not a number any room holds; write one such as '{example}'"
     if bound.dimension == "fraction" and 0.0 < number <= 1.0:
         return (
             f"write '{_number(number * 100)} %' (a bare {shown} reads as a fraction of one; "

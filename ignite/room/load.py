@@ -213,7 +213,7 @@ def _load(text: str, filename: str, digest: str, vocabulary: Vocabulary | None) 
     if parsed.data is None:
         if not parsed.problems:
             parsed.problems.append(
-                Problem(filename, None, "", "the file is empty: `ignite new` writes a template")
+                Problem(filename, 1, "", "the file is empty: `ignite new` writes a template")
             )
         raise InputError(parsed.problems)
     reader = _Reader(filename, parsed.lines, vocabulary)
@@ -312,7 +312,7 @@ class _Reader:
             self.problem(
                 path,
                 f"expected {noun(rule.dimension)} {rule.hard.text}, got {describe(value)}"
-                f"{other_scale_hint(value, rule)} ({rule.reason})",
+                f"{other_scale_hint(value, rule)}; why: {rule.reason}",
             )
             return _NAN
         if rule.usual is not None and not rule.usual.contains(number):
@@ -342,7 +342,7 @@ class _Reader:
                 self.problem(
                     path,
                     f"expected {what} of at most {TEXT_LENGTH} characters, got "
-                    f"{len(value.strip())} ({TEXT_REASON})",
+                    f"{len(value.strip())}; why: {TEXT_REASON}",
                 )
                 return ""
             return value.strip()
@@ -378,8 +378,8 @@ class _Reader:
             if limit is not None and len(value) > limit.most:
                 self.problem(
                     path,
-                    f"expected at most {limit.most} {limit.what}, got {len(value)} "
-                    f"({limit.reason})",
+                    f"expected at most {limit.most} {limit.what}, got {len(value)}"
+                    f"; why: {limit.reason}",
                 )
                 return []
             return value
@@ -568,7 +568,7 @@ class _Reader:
             elif whole and raw > 0:
                 self.problem(
                     join(path, "count"),
-                    f"expected {PEOPLE_COUNT.text}, got {describe(raw)} ({PEOPLE_COUNT_REASON})",
+                    f"expected {PEOPLE_COUNT.text}, got {describe(raw)}; why: {PEOPLE_COUNT_REASON}",
                 )
             else:
                 self.problem(
@@ -662,7 +662,7 @@ class _Reader:
         if limit is not None and len(value) > limit.most:
             self.problem(
                 path,
-                f"expected at most {limit.most} {limit.what}, got {len(value)} ({limit.reason})",
+                f"expected at most {limit.most} {limit.what}, got {len(value)}; why: {limit.reason}",
             )
             return ()
         components: list[tuple[str, float]] = []
@@ -811,7 +811,7 @@ class _Reader:
                 join(path, "exchange"),
                 f"expected a turnover time (volume / exchange) {POCKET_TURNOVER.text}, got "
                 f"{turnover:.3g} s from {describe(section['volume'])} and "
-                f"{describe(section['exchange'])} ({POCKET_TURNOVER_REASON})",
+                f"{describe(section['exchange'])}; why: {POCKET_TURNOVER_REASON}",
             )
             return DrapePocket(_NAN, _NAN)
         return pocket
@@ -841,7 +841,7 @@ class _Reader:
                 join(path, "volume"),
                 f"expected a film (volume / area) {FILM_THICKNESS.text} thick, got "
                 f"{thickness * 1e3:.3g} mm from {describe(section['volume'])} over "
-                f"{describe(section['area'])} ({FILM_THICKNESS_REASON})",
+                f"{describe(section['area'])}; why: {FILM_THICKNESS_REASON}",
             )
         return Prep(
             preparation=preparation,
