@@ -157,13 +157,21 @@ def _render(value: float, unit: str, sig: int) -> tuple[str, float | Fraction]:
     return f"{MINUS if negative else ''}{text} {chosen[1]}", (-shown if negative else shown)
 
 
-def _scaled(magnitude: float, size: Fraction) -> Decimal:
-    """`magnitude` in display units of `size`, in decimal: never overflows to infinity.
+def _scaled(magnitude: float, size: Fraction) -> float | Decimal:
+    """`magnitude` in display units of `size`; in decimal where a float would overflow.
 
+    Float division as always for the values a room gives (so texts stay as they were);
+    decimal only past a float's range, never infinity.
+
+    >>> _scaled(6.195e-3, Fraction(1, 10**3))
+    6.195
     >>> _scaled(1e300, Fraction(1, 10**12)) > Decimal("1e311")  # 1e300 F in pF
     True
     """
-    return Decimal(magnitude) * size.denominator / size.numerator
+    scaled = magnitude / float(size)
+    if math.isinf(scaled) or (scaled == 0.0 and magnitude != 0.0):
+        return Decimal(magnitude) * size.denominator / size.numerator
+    return scaled
 
 
 def _base_symbol(unit: str, ladder: _Ladder | None) -> str:
