@@ -265,6 +265,22 @@ def figure_problems(record: Any, path: str = "") -> Iterator[str]:
                 yield from figure_problems(value, f"{path}[{index}]")
 
 
+def _count_notes(record: Any) -> int:
+    """Null figures with a reason beside them (`washout_s: null, washout_note: ...`)."""
+    from ignite.records.results import _note_key
+
+    if isinstance(record, dict):
+        own = sum(
+            1
+            for key, value in record.items()
+            if value is None and record.get(_note_key(key, {}), None) is not None
+        )
+        return own + sum(_count_notes(value) for value in record.values())
+    if isinstance(record, list):
+        return sum(_count_notes(value) for value in record)
+    return 0
+
+
 @dataclass
 class Tally:
     files: int = 0
@@ -272,6 +288,7 @@ class Tally:
     computed: int = 0
     skipped_slow_kind: int = 0
     rejected: int = 0
+    nulls: int = 0  # figures that do not exist (null, with a reason beside them)
     crashes: list[str] = field(default_factory=list)
     slow: list[str] = field(default_factory=list)
     bad_figures: list[str] = field(default_factory=list)
@@ -282,7 +299,7 @@ class Tally:
         return (
             f"{self.files} files: {self.loaded} loaded ({self.computed} computed, "
             f"{self.skipped_slow_kind} with preparations not computed), {self.rejected} "
-            f"rejected; {len(self.crashes)} crashes, {len(self.slow)} solves over {SLOW_S:g} s, "
+            f"rejected; {self.nulls} null figures with a reason; {len(self.crashes)} crashes, {len(self.slow)} solves over {SLOW_S:g} s, "
             f"{len(self.bad_figures)} non-finite or out-of-range figures, "
             f"{len(self.bad_rejections)} rejections not in FILE:LINE: key form"
         )
@@ -308,6 +325,7 @@ def check_file(path: Path, book: Any, tally: Tally, *, compute_preps: bool = Tru
         tally.computed += 1
         record = results.to_record()
         json.dumps(record, allow_nan=False, ensure_ascii=False)
+        tally.nulls += _count_notes(record)
         problems = list(figure_problems(record))
         tally.bad_figures += [f"{path.name}: {problem}" for problem in problems]
     except InputError as exc:
