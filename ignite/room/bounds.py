@@ -124,8 +124,8 @@ BOUNDS: dict[str, Bound] = {
         "fraction",
         Limits("between 0 % and 100 %", low=0.0, high=1.0),
         Limits("10 % to 90 %", low=0.10, high=0.90),
-        "relative humidity is 0-100 % by definition; below 10 % or above 90 % is rare in a "
-        "ventilated theatre and most often a fraction written as a percentage (0.24 % for 24 %)",
+        "relative humidity is 0-100 % by definition; a ventilated theatre seldom reads below "
+        "10 % or above 90 %, and such a reading is more often a slip (0.24 % for 24 %)",
     ),
     "environment.air_changes": Bound(
         "rate",
