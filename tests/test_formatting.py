@@ -224,3 +224,25 @@ def test_temperatures_against_a_limit() -> None:
     # Flash point of pure isopropanol 12 °C (published, safety data) against a 32 °C film.
     assert format_against_limit(285.15, 305.15, "K") == ("12 °C", "32 °C")
     assert format_against_limit(305.16, 305.15, "K") == ("32.01 °C", "32 °C")
+
+
+UNITS = ["Ω", "V", "A", "F", "J", "C", "s", "K", "fraction", "m3", "m3_per_s", "per_s", "W"]
+
+
+def test_extreme_finite_values_print_in_exponent_form() -> None:
+    # A trolley of 1e300 F once crashed here (its pF value overflowed a float).
+    assert format_si(1e300, "F") == "1e+312 pF"
+    assert format_si(1.7976931348623157e308, "J") == "1.8e+308 J"
+    assert format_si(5e-324, "Ω") == "4.94e-324 Ω"
+
+
+@given(
+    value=st.floats(allow_nan=False, allow_infinity=False),
+    limit=st.floats(allow_nan=False, allow_infinity=False),
+    unit=st.sampled_from(UNITS),
+)
+def test_any_finite_value_formats_without_error(value: float, limit: float, unit: str) -> None:
+    text = format_si(value, unit)
+    assert text and "inf" not in text and "nan" not in text.lower()
+    value_text, limit_text = format_against_limit(value, limit, unit)
+    assert value_text and limit_text

@@ -141,7 +141,7 @@ def test_readings_outside_usual_range_are_warnings() -> None:
         (19, "floor.point_to_ground[2]", "'2 TΩ'"),
         (24, "people[0].capacitance", "'1500 pF'"),
         (31, "cases[0].oxygen.flow", "'20 L/min'"),
-        (35, "cases[0].drape_pocket.volume", "'2 m^3'"),
+        (35, "cases[0].drape_pocket.volume", "'300 L'"),
     ]
     assert len(room.warnings) == len(expected)
     for warning, (line, key, value) in zip(room.warnings, expected, strict=True):
@@ -276,18 +276,30 @@ SINGLE = [
         "people[0].footwear",
         "footwear class (conductive, esd, antistatic, insulating) or a measured resistance",
     ),
-    ("footwear: 40 MΩ", "footwear: -40 MΩ", 31, "people[1].footwear", "above zero"),
-    ("capacitance: 150 pF", "capacitance: 0 pF", 28, "people[0].capacitance", "above zero"),
+    ("footwear: 40 MΩ", "footwear: -40 MΩ", 31, "people[1].footwear", "between 1 Ω and 1000 TΩ"),
+    (
+        "capacitance: 150 pF",
+        "capacitance: 0 pF",
+        28,
+        "people[0].capacitance",
+        "between 1 pF and 100 nF",
+    ),
     ("water: 30 %", "water: 0 %", 42, "preparations[0].components.water", "above 0 %"),
     ("hair: false", 'hair: "no"', 63, "cases[0].prep.hair", "expected true or false"),
-    ("volume: 30 L", "volume: -30 L", 57, "cases[0].drape_pocket.volume", "above zero"),
-    ("flow: 4 L/min", "flow: -4 L/min", 52, "cases[0].oxygen.flow", "of zero or more"),
+    ("volume: 30 L", "volume: -30 L", 57, "cases[0].drape_pocket.volume", "between 1 L and 500 L"),
+    (
+        "flow: 4 L/min",
+        "flow: -4 L/min",
+        52,
+        "cases[0].oxygen.flow",
+        "between 0 L/min and 100 L/min",
+    ),
     (
         "draping_after: 3 min",
         "draping_after: -3 min",
         67,
         "cases[0].draping_after",
-        "time of zero or more",
+        "time between 0 s and 24 h",
     ),
     (
         "delivery: nasal-cannula",
@@ -589,3 +601,175 @@ def test_mutations_give_room_or_input_error(text: str) -> None:
         return
     assert isinstance(room, Room)
     _assert_finite(room)
+
+
+# -- bounds on every quantity (ignite/room/bounds.py) ---------------------------------
+
+
+def test_every_quantity_key_has_one_bound_with_a_reason() -> None:
+    from ignite.room.bounds import BOUNDS, LISTS
+
+    quantity_keys = {
+        "room.mains.voltage",
+        "room.mains.frequency",
+        *(f"environment.{key}" for key in ("temperature", "relative_humidity", "air_changes")),
+        "environment.volume",
+        "floor.test_voltage",
+        "floor.point_to_ground[]",
+        "floor.point_to_point[]",
+        "people[].footwear",
+        "people[].capacitance",
+        "trolleys[].capacitance",
+        "trolleys[].path_to_floor",
+        "preparations[].components.*",
+        *(
+            f"cases[].oxygen.{key}"
+            for key in ("flow", "fraction", "nitrous_oxide_flow", "stop_before_activation")
+        ),
+        "cases[].drape_pocket.volume",
+        "cases[].drape_pocket.exchange",
+        *(f"cases[].prep.{key}" for key in ("volume", "area", "skin_temperature")),
+        "cases[].air_speed",
+        "cases[].draping_after",
+        "cases[].first_activation_after",
+    }
+    assert set(BOUNDS) == quantity_keys
+    for key, bound in BOUNDS.items():
+        assert len(bound.reason) > 20, key
+        assert bound.hard.low is not None or bound.hard.high is not None, key
+        assert bound.hard.high is not None, f"{key}: a hard upper bound keeps inf out"
+        if bound.usual is not None:  # the usual range lies inside the hard one
+            low, high = bound.usual.low, bound.usual.high
+            assert low is None or bound.hard.contains(low) or low == bound.hard.low, key
+            assert high is None or bound.hard.contains(high), key
+    assert {"floor.point_to_ground", "people", "cases", "cases[].ignition_sources"} <= set(LISTS)
+
+
+def test_limits_never_contain_infinity_or_nan() -> None:
+    from ignite.room.bounds import Limits
+
+    for limits in (Limits("any"), Limits("above 0", low=0.0), Limits("below 1", high=1.0)):
+        assert not limits.contains(math.inf)
+        assert not limits.contains(-math.inf)
+        assert not limits.contains(math.nan)
+        assert not limits.contains(10**400)  # type: ignore[arg-type]
+
+
+NON_FINITE = [
+    # a one-line edit of a room, each once a crash or a silent nonsense result
+    ("test_voltage: 500 V", "test_voltage: 1.7976931348623157e308 V", "floor.test_voltage"),
+    ("frequency: 50 Hz", "frequency: 1.8e308 Hz", "room.mains.frequency"),
+    ("temperature: 20 degC", "temperature: 1.7976931348623157e308 K", "environment.temperature"),
+    ("    capacitance: 100 pF", "    capacitance: 1e300 F", "trolleys[0].capacitance"),
+    ("area: 400 cm^2", "area: 1e308 cm^2", "cases[0].prep.area"),
+    ("exchange: 10 L/min", "exchange: 0 L/min", "cases[0].drape_pocket.exchange"),
+    ("    count: 2", "    count: 100000000000000000000000000", "people[0].count"),
+    ("volume: 140 m^3", "volume: .inf", "environment.volume"),
+    ("air_speed: 0.2 m/s", "air_speed: .nan", "cases[0].air_speed"),
+    ("flow: 4 L/min", "flow: 1e6 L/min", "cases[0].oxygen.flow"),
+    ("fraction: 100 %", "fraction: 10 %", "cases[0].oxygen.fraction"),
+    ("      volume: 30 L", "      volume: 1 mL", "cases[0].drape_pocket.volume"),
+]
+
+
+@pytest.mark.parametrize(("old", "new", "key"), NON_FINITE)
+def test_values_past_the_hard_range_are_refused(old: str, new: str, key: str) -> None:
+    problem = only_problem(mutate(old, new))
+    assert problem.path == key
+    assert problem.line == line_number(FULL, old)
+    assert problem.file == NAME
+
+
+def line_number(text: str, fragment: str) -> int:
+    return text[: text.index(fragment)].count("\n") + 1 + fragment[:1].count("\n")
+
+
+def test_a_range_error_gives_its_reason() -> None:
+    message = only_problem(mutate("exchange: 10 L/min", "exchange: 0 L/min")).message
+    assert "above 0.01 L/min and at most 10000 L/min, got '0 L/min'; why: " in message
+    assert "never clears" in message
+
+
+def test_pocket_turnover_and_film_thickness_are_checked() -> None:
+    fast = only_problem(mutate("exchange: 10 L/min", "exchange: 5000 L/min"))
+    assert fast.path == "cases[0].drape_pocket.exchange"
+    assert "turnover time (volume / exchange) at least 1 s, got 0.36 s" in fast.message
+    thick = only_problem(mutate("volume: 10 mL", "volume: 300 mL"))
+    assert thick.path == "cases[0].prep.volume"
+    assert "at most 5 mm thick, got 7.5 mm" in thick.message
+
+
+@pytest.mark.parametrize(
+    ("old", "new", "key", "fragment"),
+    [
+        (
+            "  point_to_point: [320 kΩ, 410 kΩ]",
+            "  point_to_point: [" + ", ".join(["320 kΩ"] * 1001) + "]",
+            "floor.point_to_point",
+            "expected at most 1000 readings, got 1001",
+        ),
+        (
+            "    ignition_sources: [monopolar electrosurgery, fibre-optic light cable]",
+            "    ignition_sources: [" + ", ".join(["bipolar electrosurgery"] * 51) + "]",
+            "cases[0].ignition_sources",
+            "expected at most 50 ignition sources, got 51",
+        ),
+        (
+            "  - role: surgeon",
+            "  - role: " + "surgeon " * 30,
+            "people[1].role",
+            "at most 200 characters, got 239",
+        ),
+        ("  - role: surgeon", '  - role: "\\ud800"', "people[1].role", "lone surrogate"),
+    ],
+)
+def test_lists_and_texts_have_documented_limits(
+    old: str, new: str, key: str, fragment: str
+) -> None:
+    problem = only_problem(mutate(old, new))
+    assert (problem.path, problem.line) == (key, line_number(FULL, old))
+    assert fragment in problem.message
+
+
+def test_people_have_a_list_limit() -> None:
+    start, end = FULL.index("people:\n"), FULL.index("trolleys:\n")
+    people = "people:\n" + "  - {role: nurse, count: 1, footwear: esd}\n" * 101
+    problem = only_problem(FULL[:start] + people + FULL[end:])
+    assert (problem.path, problem.line) == ("people", line_number(FULL, "people:\n"))
+    assert problem.message.startswith("expected at most 100 groups of people, got 101; why: ")
+
+
+# -- hints that are right ------------------------------------------------------------
+
+
+def test_bare_fraction_for_a_percentage_suggests_the_percentage() -> None:
+    problem = only_problem(mutate("relative_humidity: 28 %", "relative_humidity: 0.24"))
+    assert problem.path == "environment.relative_humidity"
+    assert "write '24 %'" in problem.message
+    assert "'0.24 %' would mean 0.24 percent" in problem.message
+    assert "e.g. '0.24 %'" not in problem.message
+
+
+def test_a_fraction_written_with_percent_is_warned_with_the_percentage() -> None:
+    room = load_room_text(mutate("relative_humidity: 28 %", "relative_humidity: 0.24 %"), NAME)
+    (warning,) = room.warnings
+    assert "environment.relative_humidity: '0.24 %' is outside the usual range (10 % to 90 %)" in (
+        warning
+    )
+    assert "if 0.24 is a fraction of one, write '24 %'" in warning
+
+
+@pytest.mark.parametrize(
+    ("new", "fragment"),
+    [
+        ("temperature: 68 degC", "did you mean '68 degF' (20 °C)?"),
+        ("temperature: 68", "add a unit: '68 degF' (20 °C) if that is Fahrenheit"),
+        ("temperature: 20", "add a unit, e.g. '20 degC'"),
+        ("temperature: 293", "add a unit: '293 K' (19.9 °C) if that is kelvin"),
+        ("temperature: 20 degF", "did you mean '20 degC' (20 °C)?"),
+    ],
+)
+def test_fahrenheit_looking_temperatures_suggest_degf(new: str, fragment: str) -> None:
+    problem = only_problem(mutate("temperature: 20 degC", new))
+    assert problem.path == "environment.temperature"
+    assert fragment in problem.message

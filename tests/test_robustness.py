@@ -135,3 +135,44 @@ def test_preparation_variations_never_crash(
     assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
     assert result.exit_code in (0, 1, 3), result.output
     assert "internal error" not in result.stderr
+
+
+def test_record_is_valid_json_with_null_and_a_reason_for_what_does_not_exist(
+    room_data: dict[str, Any], assess_data: Any
+) -> None:
+    """A pocket that never clears: null with a reason, never a bare Infinity or NaN."""
+    import dataclasses
+    import json
+    import math
+
+    from ignite.records.results import Amount
+
+    room_data["cases"] = [copy.deepcopy(CASE)]
+    results = assess_data(room_data)
+    case = dataclasses.replace(
+        results.cases[0],
+        washout_s=math.inf,
+        drying_time_s=math.inf,
+        oxygen_curve=((math.nan, 0.5), (math.inf, 0.209)),
+    )
+    finding = dataclasses.replace(results.findings[0], measured=Amount(math.inf, "s"))
+    changed = dataclasses.replace(results, cases=(case,), findings=(finding,))
+    record = changed.to_record()
+    text = json.dumps(record, allow_nan=False)  # raises on NaN or Infinity
+    assert "Infinity" not in text and "NaN" not in text
+    (case_record,) = record["cases"]
+    assert case_record["washout_s"] is None
+    assert case_record["washout_note"].startswith("never: the pocket does not fall back")
+    assert case_record["drying_time_s"] is None
+    assert case_record["drying_time_note"].startswith("never:")
+    assert case_record["oxygen_curve"] == [[None, 0.5], [None, 0.209]]
+    measured = record["findings"][0]["measured"]
+    assert measured == {
+        "value": None,
+        "unit": "s",
+        "note": "never: the time is infinite in the model",
+    }
+    # finite records are unchanged: no note keys appear
+    plain = results.to_record()
+    assert not any(key.endswith("_note") for key in plain["cases"][0])
+    assert json.loads(json.dumps(plain, allow_nan=False)) == plain

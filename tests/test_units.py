@@ -160,3 +160,28 @@ def test_any_text_parses_or_raises_unit_error(text: str) -> None:
         except UnitError:
             continue
         assert math.isfinite(value)
+
+
+@pytest.mark.parametrize(
+    ("text", "dimension"),
+    [
+        ("1.7976931348623157e308 V", "voltage"),  # rounds to infinity at 15 digits
+        ("1.8e308 Hz", "frequency"),  # infinity as read
+        ("1.7976931348623157e308 K", "temperature"),
+        ("1e300 TΩ", "resistance"),  # infinity after the prefix
+    ],
+)
+def test_numbers_that_become_infinite_are_refused(text: str, dimension: str) -> None:
+    with pytest.raises(UnitError, match="out of range"):
+        parse_quantity(text, dimension)
+
+
+def test_a_bare_number_error_carries_the_number() -> None:
+    from ignite.room.units import BareNumberError
+
+    with pytest.raises(BareNumberError) as caught:
+        parse_quantity("0.24", "fraction")
+    assert (caught.value.number, caught.value.shown) == (0.24, "0.24")
+    with pytest.raises(BareNumberError) as huge:
+        parse_quantity(10**400, "volume")  # type: ignore[arg-type]
+    assert huge.value.number == math.inf

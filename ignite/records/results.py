@@ -7,6 +7,7 @@ added, never renamed or dropped. Field names here follow the record's suffixes:
 
 from __future__ import annotations
 
+import math
 from dataclasses import asdict, dataclass, field
 from typing import Any
 
@@ -217,22 +218,28 @@ class Results:
         return min((f.severity for f in self.findings), key=severity_rank)
 
     def to_record(self) -> dict[str, Any]:
-        """The JSON result record of the contract (plus optional additions)."""
-        return {
-            "format": 1,
-            "tool_version": self.tool_version,
-            "input_sha256": self.input_sha256,
-            "rules_sha256": self.rules_digest,
-            "room": asdict(self.room),
-            "environment": asdict(self.environment),
-            "floor": _clean(asdict(self.floor)),
-            "people": [_charge_record(p, "role") for p in self.people],
-            "trolleys": [_charge_record(t, "name") for t in self.trolleys],
-            "preparations": [_clean(asdict(p)) for p in self.preparations],
-            "cases": [_case_record(c) for c in self.cases],
-            "findings": [_clean(asdict(f)) for f in self.findings],
-            "warnings": list(self.warnings),
-        }
+        """The JSON result record of the contract (plus optional additions).
+
+        Always valid JSON: a figure that does not exist (a pocket that never clears, an
+        infinite time) is null, with its reason in a `<name>_note` key beside it.
+        """
+        return _clean(
+            {
+                "format": 1,
+                "tool_version": self.tool_version,
+                "input_sha256": self.input_sha256,
+                "rules_sha256": self.rules_digest,
+                "room": asdict(self.room),
+                "environment": asdict(self.environment),
+                "floor": _clean(asdict(self.floor)),
+                "people": [_charge_record(p, "role") for p in self.people],
+                "trolleys": [_charge_record(t, "name") for t in self.trolleys],
+                "preparations": [_clean(asdict(p)) for p in self.preparations],
+                "cases": [_case_record(c) for c in self.cases],
+                "findings": [_clean(asdict(f)) for f in self.findings],
+                "warnings": list(self.warnings),
+            }
+        )
 
 
 def _charge_record(charge: ChargeResult, label_key: str) -> dict[str, Any]:
@@ -247,12 +254,78 @@ def _case_record(case: CaseResult) -> dict[str, Any]:
     return record
 
 
-def _clean(value: Any) -> Any:
-    """Tuples to lists, recursively, so the record is plain JSON."""
+# Why a figure has no finite value, by record key; `_clean` puts it beside the null.
+_NO_VALUE_REASONS: dict[str, str] = {
+    "washout_s": "never: the pocket does not fall back to the oxygen-enriched limit",
+    "required_stop_s": "never: no oxygen stop brings the site to the oxygen-enriched limit",
+    "ceiling_stop_s": "never: no oxygen stop brings the site to the open-delivery ceiling",
+    "buildup_s": "never: the site does not reach the oxygen-enriched limit",
+    "drying_time_s": "never: the flammable part of the prep does not evaporate in the time "
+    "modelled",
+    "safe_draping_after_s": "never: the drape pocket does not stay below the limit",
+    "settle_time_s": "never: the voltage does not fall below the no-spark voltage",
+}
+_UNIT_SUFFIXES = (
+    "_fraction_of_lfl",
+    "_m3_per_s",
+    "_fraction",
+    "_per_s",
+    "_ohm",
+    "_m3",
+    "_Hz",
+    "_V",
+    "_A",
+    "_C",
+    "_F",
+    "_J",
+    "_K",
+    "_s",
+)
+
+
+def _note_key(key: str, record: dict[str, Any]) -> str:
+    """The key beside `key` that says why its value is null: washout_s -> washout_note."""
+    if key == "value":
+        stem = ""
+    else:
+        stem = next((key[: -len(s)] for s in _UNIT_SUFFIXES if key.endswith(s)), key) + "_"
+    note = f"{stem}note"
+    return note if note not in record else f"{key}_note"
+
+
+def _no_value_reason(key: str, value: float) -> str:
+    if key in _NO_VALUE_REASONS and value > 0:
+        return _NO_VALUE_REASONS[key]
+    if math.isnan(value):
+        return "not defined for these inputs"
+    return "without bound in the model (infinite)"
+
+
+def _clean(value: Any, key: str = "") -> Any:
+    """Plain, valid JSON: tuples to lists, and no NaN or infinity, recursively.
+
+    A non-finite number becomes None; in a mapping, a `<name>_note` key beside it
+    says why (a finding's measured value gets `note`).
+
+    >>> _clean({"washout_s": math.inf, "curve": ((0.0, math.nan),)})
+    {'washout_s': None, 'washout_note': 'never: the pocket does not fall back to the \
+oxygen-enriched limit', 'curve': [[0.0, None]]}
+    """
     if isinstance(value, dict):
-        return {k: _clean(v) for k, v in value.items()}
+        cleaned: dict[str, Any] = {}
+        for name, item in value.items():
+            cleaned[name] = _clean(item, name)
+            if isinstance(item, float) and not math.isfinite(item):
+                if name == "value" and value.get("unit") == "s" and item > 0:
+                    reason = "never: the time is infinite in the model"
+                else:
+                    reason = _no_value_reason(name, item)
+                cleaned[_note_key(name, value)] = reason
+        return cleaned
     if isinstance(value, (list, tuple)):
-        return [_clean(v) for v in value]
+        return [_clean(v, key) for v in value]
+    if isinstance(value, float) and not math.isfinite(value):
+        return None
     return value
 
 

@@ -19,11 +19,25 @@ import hashlib
 import math
 import re
 from collections.abc import Iterable, Mapping
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 from ignite.errors import InputError, Problem, UnitError
+from ignite.room.bounds import (
+    FILM_THICKNESS,
+    FILM_THICKNESS_REASON,
+    PEOPLE_COUNT,
+    PEOPLE_COUNT_REASON,
+    POCKET_TURNOVER,
+    POCKET_TURNOVER_REASON,
+    TEXT_LENGTH,
+    TEXT_REASON,
+    Bound,
+    Limits,
+    bound_for,
+    list_limit,
+)
+from ignite.room.hints import bare_number_hint, other_scale_hint
 from ignite.room.model import (
     Case,
     DrapePocket,
@@ -41,7 +55,7 @@ from ignite.room.model import (
     Vocabulary,
 )
 from ignite.room.source import MAX_BYTES, item, join, line_of, parse_yaml
-from ignite.room.units import describe, noun, parse_quantity
+from ignite.room.units import BareNumberError, describe, noun, parse_quantity
 
 FORMAT = 1
 PURPOSES = ("pre-list", "recommissioning", "periodic-audit")
@@ -59,49 +73,6 @@ _ROOM_ID = re.compile(r"[A-Za-z0-9][A-Za-z0-9._-]{0,39}\Z")
 _DATE = re.compile(r"\d{4}-\d{2}-\d{2}\Z")
 _STARTS_LIKE_NUMBER = re.compile(r"\s*[+\-\u2212]?\.?\d")
 
-
-@dataclass(frozen=True)
-class Limits:
-    """A closed or open interval of SI values, with the words that describe it."""
-
-    text: str
-    low: float | None = None
-    high: float | None = None
-    low_open: bool = False
-    high_open: bool = False
-
-    def contains(self, value: float) -> bool:
-        # a hair of tolerance so that "45 degC" (318.15 K after float arithmetic) is in
-        slack = 1e-9 * max(abs(value), 1e-300)
-        if self.low is not None:
-            if self.low_open and not value > self.low:
-                return False
-            if not self.low_open and value < self.low - slack:
-                return False
-        if self.high is not None:
-            if self.high_open and not value < self.high:
-                return False
-            if not self.high_open and value > self.high + slack:
-                return False
-        return True
-
-
-POSITIVE = Limits("above zero", low=0.0, low_open=True)
-NON_NEGATIVE = Limits("of zero or more", low=0.0)
-FRACTION = Limits("between 0 % and 100 %", low=0.0, high=1.0)
-COMPONENT = Limits("above 0 % and at most 100 %", low=0.0, high=1.0, low_open=True)
-ROOM_TEMPERATURE = Limits("between 5 degC and 45 degC", low=278.15, high=318.15)
-SKIN_TEMPERATURE = Limits("between 20 degC and 42 degC", low=293.15, high=315.15)
-MAINS_VOLTAGE = Limits("between 100 V and 480 V", low=100.0, high=480.0)
-MAINS_FREQUENCY = Limits("between 45 Hz and 65 Hz", low=45.0, high=65.0)
-TEST_VOLTAGE = Limits("between 10 V and 1000 V", low=10.0, high=1000.0)
-
-# The trade's usual ranges: outside them a value is accepted with a warning.
-USUAL_FLOOR_READING = Limits("1 kΩ to 1 TΩ", low=1e3, high=1e12)
-USUAL_CAPACITANCE = Limits("20 pF to 1000 pF", low=20e-12, high=1000e-12)
-USUAL_AIR_CHANGES = Limits("up to 100 /h", high=100.0 / 3600.0)
-USUAL_POCKET_VOLUME = Limits("up to 1 m³", high=1.0)
-USUAL_OXYGEN_FLOW = Limits("up to 15 L/min", high=15e-3 / 60.0)
 
 _TOP = {
     "format": True,
@@ -180,6 +151,8 @@ _KEY_EXAMPLES = {
     "prep": "prep: none",
 }
 
+_COMPONENT = bound_for("preparations[].components.*")
+
 _NAN = math.nan  # placeholder for a value already reported; never leaves this module
 
 
@@ -240,7 +213,7 @@ def _load(text: str, filename: str, digest: str, vocabulary: Vocabulary | None) 
     if parsed.data is None:
         if not parsed.problems:
             parsed.problems.append(
-                Problem(filename, None, "", "the file is empty: `ignite new` writes a template")
+                Problem(filename, 1, "", "the file is empty: `ignite new` writes a template")
             )
         raise InputError(parsed.problems)
     reader = _Reader(filename, parsed.lines, vocabulary)
@@ -303,7 +276,7 @@ class _Reader:
                 guessed.update(hint)
                 self.problem(
                     join(path, key),
-                    f"unknown key '{key}'{guess}; allowed here: {', '.join(keys)}",
+                    f"unknown key {describe(key)}{guess}; allowed here: {', '.join(keys)}",
                 )
         # a misspelt key is reported once, as unknown, not again as missing
         missing = [
@@ -319,40 +292,59 @@ class _Reader:
             self.problem(path, f"missing required keys: {', '.join(missing)}")
         return value
 
-    def quantity(
-        self,
-        value: Any,
-        path: str,
-        dimension: str,
-        limits: Limits,
-        usual: Limits | None = None,
-    ) -> float:
-        """A quantity string as an SI float, range-checked; NaN after a reported problem."""
+    def quantity(self, value: Any, path: str, bound: Bound | None = None) -> float:
+        """A quantity string as an SI float, checked against its bound in `bounds.BOUNDS`.
+
+        NaN after a reported problem. Outside the hard range is a problem, outside the
+        usual range a warning; a hint is added where a likely slip is recognised.
+        """
+        rule = bound or bound_for(path)
         try:
-            number = parse_quantity(value, dimension)
+            number = parse_quantity(value, rule.dimension)
+        except BareNumberError as exc:
+            hint = bare_number_hint(exc.number, exc.shown, exc.example_unit, rule)
+            self.problem(path, f"{exc.expected}, got a bare number {exc.shown}: {hint}")
+            return _NAN
         except UnitError as exc:
             self.problem(path, exc.message)
             return _NAN
-        if not limits.contains(number):
-            self.problem(path, f"expected {noun(dimension)} {limits.text}, got {describe(value)}")
+        if not rule.hard.contains(number):
+            self.problem(
+                path,
+                f"expected {noun(rule.dimension)} {rule.hard.text}, got {describe(value)}"
+                f"{other_scale_hint(value, rule)}; why: {rule.reason}",
+            )
             return _NAN
-        if usual is not None and not usual.contains(number):
+        if rule.usual is not None and not rule.usual.contains(number):
             self.warn(
                 path,
-                f"{describe(value)} is outside the usual range ({usual.text}): "
-                "accepted; check the reading and its unit",
+                f"{describe(value)} is outside the usual range ({rule.usual.text}): "
+                f"accepted; check the reading and its unit{other_scale_hint(value, rule)}",
             )
         return number
 
-    def optional_quantity(
-        self, value: Any, path: str, dimension: str, limits: Limits, usual: Limits | None = None
-    ) -> float | None:
-        if value is None:
+    def optional_quantity(self, section: dict[str, Any], path: str, key: str) -> float | None:
+        if section.get(key) is None:
             return None
-        return self.quantity(value, path, dimension, limits, usual)
+        return self.quantity(section[key], join(path, key))
 
     def text(self, value: Any, path: str, what: str = "text") -> str:
         if isinstance(value, str) and value.strip():
+            if _has_lone_surrogate(value):
+                self.problem(
+                    path,
+                    f"expected {what}, got {describe(value)}: it holds a lone surrogate "
+                    "(an escape such as \\ud800 that is no character); write the character "
+                    "itself",
+                )
+                return ""
+            if len(value.strip()) > TEXT_LENGTH:
+                self.problem(
+                    path,
+                    f"expected {what} of at most {TEXT_LENGTH} characters, got "
+                    f"{len(value.strip())}; why: {TEXT_REASON}",
+                )
+                return ""
             return value.strip()
         if isinstance(value, int) and not isinstance(value, bool):
             return str(value)
@@ -382,6 +374,14 @@ class _Reader:
         if value is None:
             return []
         if isinstance(value, list):
+            limit = list_limit(path)
+            if limit is not None and len(value) > limit.most:
+                self.problem(
+                    path,
+                    f"expected at most {limit.most} {limit.what}, got {len(value)}"
+                    f"; why: {limit.reason}",
+                )
+                return []
             return value
         self.problem(path, f"expected a list of {what}, got {describe(value)}")
         return []
@@ -494,28 +494,18 @@ class _Reader:
         if section is None:
             return None
         return Mains(
-            voltage=self.required_quantity(section, path, "voltage", "voltage", MAINS_VOLTAGE),
-            frequency=self.required_quantity(
-                section, path, "frequency", "frequency", MAINS_FREQUENCY
-            ),
+            voltage=self.required_quantity(section, path, "voltage"),
+            frequency=self.required_quantity(section, path, "frequency"),
             system=self.choice(section["system"], join(path, "system"), SYSTEMS, "a supply system")
             if "system" in section
             else "",
         )
 
-    def required_quantity(
-        self,
-        section: dict[str, Any],
-        path: str,
-        key: str,
-        dimension: str,
-        limits: Limits,
-        usual: Limits | None = None,
-    ) -> float:
+    def required_quantity(self, section: dict[str, Any], path: str, key: str) -> float:
         """`section[key]` as a quantity; NaN when missing (already reported by `mapping`)."""
         if key not in section:
             return _NAN
-        return self.quantity(section[key], join(path, key), dimension, limits, usual)
+        return self.quantity(section[key], join(path, key))
 
     def environment(self, value: Any) -> Environment | None:
         path = "environment"
@@ -523,16 +513,10 @@ class _Reader:
         if section is None:
             return None
         return Environment(
-            temperature=self.required_quantity(
-                section, path, "temperature", "temperature", ROOM_TEMPERATURE
-            ),
-            relative_humidity=self.required_quantity(
-                section, path, "relative_humidity", "fraction", FRACTION
-            ),
-            air_changes=self.required_quantity(
-                section, path, "air_changes", "rate", NON_NEGATIVE, USUAL_AIR_CHANGES
-            ),
-            volume=self.required_quantity(section, path, "volume", "volume", POSITIVE),
+            temperature=self.required_quantity(section, path, "temperature"),
+            relative_humidity=self.required_quantity(section, path, "relative_humidity"),
+            air_changes=self.required_quantity(section, path, "air_changes"),
+            volume=self.required_quantity(section, path, "volume"),
         )
 
     def floor(self, value: Any) -> Floor | None:
@@ -551,9 +535,7 @@ class _Reader:
             if "finish" in section
             else "",
             criteria=criteria,
-            test_voltage=self.required_quantity(
-                section, path, "test_voltage", "voltage", TEST_VOLTAGE
-            ),
+            test_voltage=self.required_quantity(section, path, "test_voltage"),
             point_to_ground=self.readings(section, path, "point_to_ground", required=True),
             point_to_point=self.readings(section, path, "point_to_point", required=False),
         )
@@ -570,10 +552,7 @@ class _Reader:
         if required and not entries and isinstance(section[key], (list, type(None))):
             self.problem(list_path, "expected at least one reading (e.g. [180 kΩ, 240 kΩ])")
         return tuple(
-            self.quantity(
-                entry, item(list_path, index), "resistance", POSITIVE, USUAL_FLOOR_READING
-            )
-            for index, entry in enumerate(entries)
+            self.quantity(entry, item(list_path, index)) for index, entry in enumerate(entries)
         )
 
     def person(self, value: Any, path: str) -> Person:
@@ -583,8 +562,14 @@ class _Reader:
         count = 0
         if "count" in section:
             raw = section["count"]
-            if isinstance(raw, int) and not isinstance(raw, bool) and raw > 0:
+            whole = isinstance(raw, int) and not isinstance(raw, bool)
+            if whole and PEOPLE_COUNT.contains(raw):
                 count = raw
+            elif whole and raw > 0:
+                self.problem(
+                    join(path, "count"),
+                    f"expected {PEOPLE_COUNT.text}, got {describe(raw)}; why: {PEOPLE_COUNT_REASON}",
+                )
             else:
                 self.problem(
                     join(path, "count"),
@@ -598,15 +583,7 @@ class _Reader:
             footwear=self.footwear(section["footwear"], join(path, "footwear"))
             if "footwear" in section
             else Footwear(None, None),
-            capacitance=self.optional_quantity(
-                section.get("capacitance"),
-                join(path, "capacitance"),
-                "capacitance",
-                POSITIVE,
-                USUAL_CAPACITANCE,
-            )
-            if "capacitance" in section
-            else None,
+            capacitance=self.optional_quantity(section, path, "capacitance"),
         )
 
     def footwear(self, value: Any, path: str) -> Footwear:
@@ -615,7 +592,7 @@ class _Reader:
             classes = sorted(self.vocabulary.footwear_classes)
         classes = tuple(classes)
         if isinstance(value, str) and _STARTS_LIKE_NUMBER.match(value):
-            resistance = self.quantity(value, path, "resistance", POSITIVE)
+            resistance = self.quantity(value, path)
             return Footwear(cls=None, resistance=resistance)
         if isinstance(value, str) and value.strip().lower() in classes:
             return Footwear(cls=value.strip().lower(), resistance=None)
@@ -634,12 +611,8 @@ class _Reader:
             name=self.text(section["name"], join(path, "name"), "a name")
             if "name" in section
             else "",
-            capacitance=self.required_quantity(
-                section, path, "capacitance", "capacitance", POSITIVE, USUAL_CAPACITANCE
-            ),
-            path_to_floor=self.required_quantity(
-                section, path, "path_to_floor", "resistance", POSITIVE
-            ),
+            capacitance=self.required_quantity(section, path, "capacitance"),
+            path_to_floor=self.required_quantity(section, path, "path_to_floor"),
         )
 
     def preparations(self, value: Any) -> tuple[Preparation, ...]:
@@ -685,11 +658,24 @@ class _Reader:
                 f"got {describe(value) if value != {} else 'none'}",
             )
             return ()
+        limit = list_limit(path)
+        if limit is not None and len(value) > limit.most:
+            self.problem(
+                path,
+                f"expected at most {limit.most} {limit.what}, got {len(value)}; why: {limit.reason}",
+            )
+            return ()
         components: list[tuple[str, float]] = []
         for name, fraction in value.items():
             component_path = join(path, name)
             if not name.strip():
                 self.problem(component_path, "expected a substance name or CAS number")
+            elif _has_lone_surrogate(name):
+                self.problem(
+                    component_path,
+                    f"expected a substance name or CAS number, got {describe(name)}: it holds "
+                    "a lone surrogate; write the character itself",
+                )
             elif self.vocabulary is not None and self.vocabulary.substance_check is not None:
                 complaint = self.vocabulary.substance_check(name.strip())
                 if complaint:
@@ -697,7 +683,7 @@ class _Reader:
             components.append(
                 (
                     name.strip(),
-                    self.quantity(fraction, component_path, "fraction", COMPONENT),
+                    self.quantity(fraction, component_path, _COMPONENT),
                 )
             )
         total = sum(fraction for _, fraction in components)
@@ -741,7 +727,7 @@ class _Reader:
         sources_known = self.vocabulary.ignition_sources if self.vocabulary else frozenset()
 
         def time(key: str) -> float:
-            return self.required_quantity(section, path, key, "time", NON_NEGATIVE)
+            return self.required_quantity(section, path, key)
 
         return Case(
             id=self.text(section["id"], join(path, "id"), "a case id") if "id" in section else "",
@@ -760,7 +746,7 @@ class _Reader:
             prep=self.prep(section["prep"], join(path, "prep"), preparation_ids)
             if "prep" in section
             else None,
-            air_speed=self.required_quantity(section, path, "air_speed", "speed", NON_NEGATIVE),
+            air_speed=self.required_quantity(section, path, "air_speed"),
             draping_after=time("draping_after"),
             first_activation_after=time("first_activation_after"),
             materials=self.materials(section.get("materials"), join(path, "materials")),
@@ -792,16 +778,10 @@ class _Reader:
         )
         oxygen = Oxygen(
             delivery=delivery,
-            flow=self.required_quantity(
-                section, path, "flow", "flow", NON_NEGATIVE, USUAL_OXYGEN_FLOW
-            ),
-            fraction=self.required_quantity(section, path, "fraction", "fraction", FRACTION),
-            nitrous_oxide_flow=self.required_quantity(
-                section, path, "nitrous_oxide_flow", "flow", NON_NEGATIVE
-            ),
-            stop_before_activation=self.required_quantity(
-                section, path, "stop_before_activation", "time", NON_NEGATIVE
-            ),
+            flow=self.required_quantity(section, path, "flow"),
+            fraction=self.required_quantity(section, path, "fraction"),
+            nitrous_oxide_flow=self.required_quantity(section, path, "nitrous_oxide_flow"),
+            stop_before_activation=self.required_quantity(section, path, "stop_before_activation"),
         )
         if delivery == "none":
             # flows with no delivery cannot both be right: refuse rather than guess
@@ -821,12 +801,20 @@ class _Reader:
         section = self.mapping(value, path, _POCKET, "the drape pocket")
         if section is None:
             return DrapePocket(_NAN, _NAN)
-        return DrapePocket(
-            volume=self.required_quantity(
-                section, path, "volume", "volume", POSITIVE, USUAL_POCKET_VOLUME
-            ),
-            exchange=self.required_quantity(section, path, "exchange", "flow", NON_NEGATIVE),
+        pocket = DrapePocket(
+            volume=self.required_quantity(section, path, "volume"),
+            exchange=self.required_quantity(section, path, "exchange"),
         )
+        turnover = pocket.volume / pocket.exchange  # NaN after a reported problem
+        if not math.isnan(turnover) and not POCKET_TURNOVER.contains(turnover):
+            self.problem(
+                join(path, "exchange"),
+                f"expected a turnover time (volume / exchange) {POCKET_TURNOVER.text}, got "
+                f"{turnover:.3g} s from {describe(section['volume'])} and "
+                f"{describe(section['exchange'])}; why: {POCKET_TURNOVER_REASON}",
+            )
+            return DrapePocket(_NAN, _NAN)
+        return pocket
 
     def prep(self, value: Any, path: str, preparation_ids: set[str]) -> Prep | None:
         if value is None or (isinstance(value, str) and value.strip().lower() == "none"):
@@ -845,23 +833,31 @@ class _Reader:
                     join(path, "preparation"),
                     f"unknown preparation id '{preparation}'; the file defines: {defined}",
                 )
+        volume = self.required_quantity(section, path, "volume")
+        area = self.required_quantity(section, path, "area")
+        thickness = volume / area  # NaN after a reported problem
+        if not math.isnan(thickness) and not FILM_THICKNESS.contains(thickness):
+            self.problem(
+                join(path, "volume"),
+                f"expected a film (volume / area) {FILM_THICKNESS.text} thick, got "
+                f"{thickness * 1e3:.3g} mm from {describe(section['volume'])} over "
+                f"{describe(section['area'])}; why: {FILM_THICKNESS_REASON}",
+            )
         return Prep(
             preparation=preparation,
-            volume=self.required_quantity(section, path, "volume", "volume", POSITIVE),
-            area=self.required_quantity(section, path, "area", "area", POSITIVE),
+            volume=volume,
+            area=area,
             hair=self.boolean(section["hair"], join(path, "hair")) if "hair" in section else False,
             pooling=self.boolean(section["pooling"], join(path, "pooling"))
             if "pooling" in section
             else False,
-            skin_temperature=self.optional_quantity(
-                section.get("skin_temperature"),
-                join(path, "skin_temperature"),
-                "temperature",
-                SKIN_TEMPERATURE,
-            )
-            if "skin_temperature" in section
-            else None,
+            skin_temperature=self.optional_quantity(section, path, "skin_temperature"),
         )
+
+
+def _has_lone_surrogate(text: str) -> bool:
+    """True when `text` holds a UTF-16 surrogate on its own (YAML lets "\\ud800" through)."""
+    return any("\ud800" <= char <= "\udfff" for char in text)
 
 
 def _placeholder_header() -> RoomHeader:

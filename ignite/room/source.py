@@ -220,6 +220,15 @@ class _Builder:
                 )
                 continue
             key = str(key_node.value)
+            if any("\ud800" <= char <= "\udfff" for char in key):
+                shown = key.encode("utf-8", "backslashreplace").decode("utf-8")
+                self.problem(
+                    _line(key_node),
+                    path,
+                    f"the key '{shown}' holds a lone surrogate (no character): write the "
+                    "key in plain text",
+                )
+                continue
             child_path = join(path, key)
             if key in result:
                 first = self.parsed.lines.get(child_path)

@@ -17,6 +17,11 @@ TEMPLATE = """\
 # an error, never a guess. Keys the file does not need may be left out only where a
 # comment says "optional".
 #
+# Every value is checked against a plausible range: outside it the file is refused with
+# the reason, outside the usual range it is accepted with a warning. Lists are limited:
+# 1000 floor readings in each list, 100 groups of people, 100 trolleys, 100 cases,
+# 50 ignition sources and 50 materials per case; names and labels to 200 characters.
+#
 # ignite's results support, and never replace, local codes, the manufacturers'
 # instructions and the judgement of a competent, licensed professional.
 
@@ -104,7 +109,7 @@ cases:                            # the planned list; may be empty (cases: []) o
       stop_before_activation: 60 s  # oxygen turned off this long before the first
                                     # activation of an ignition source (0 s if it is not)
     drape_pocket:                 # the space under the drapes around the operative site
-      volume: 25 L                # estimated gas volume of the pocket (usual range up to 1 m^3)
+      volume: 25 L                # estimated gas volume of the pocket (1 L to 500 L)
       exchange: 8 L/min           # fresh room air flowing through it
     prep:                         # the skin preparation for this case; "prep: none" if none
       preparation: chg-ipa        # an id from preparations above

@@ -30,6 +30,20 @@ from ignite.errors import UnitError
 if TYPE_CHECKING:
     import pint
 
+
+class BareNumberError(UnitError):
+    """A number written without a unit; `number` is it, for a hint that fits the key."""
+
+    def __init__(self, expected: str, shown: str, number: float, example_unit: str) -> None:
+        super().__init__(
+            f"{expected}, got a bare number {shown}: add a unit, e.g. '{shown} {example_unit}'"
+        )
+        self.expected = expected  # "expected a temperature (e.g. '20 degC')"
+        self.shown = shown  # the number as written
+        self.number = number
+        self.example_unit = example_unit
+
+
 # Dimension names used by the loaders -> pint dimensionality expression.
 DIMENSIONS: dict[str, str] = {
     "resistance": "[resistance]",
@@ -158,7 +172,21 @@ def _expected(dimension: str) -> str:
 
 
 def _show_number(value: float) -> str:
-    return repr(value) if isinstance(value, float) else str(value)
+    if isinstance(value, float):
+        return repr(value)
+    try:
+        text = str(value)
+    except ValueError:  # more digits than Python converts
+        return "with thousands of digits"
+    return text if len(text) <= 20 else f"{text[:8]}... ({len(text)} digits)"
+
+
+def _as_float(number: float) -> float:
+    """`number` as a float; an integer too large for one becomes infinity."""
+    try:
+        return float(number)
+    except OverflowError:
+        return math.inf if number > 0 else -math.inf
 
 
 def _normalise_unit(unit: str) -> str:
@@ -176,6 +204,20 @@ def _split(text: str) -> tuple[float, str] | None:
     if match is None:
         return None
     return float(match.group(1)), match.group(2)
+
+
+def number_and_unit(text: object) -> tuple[float, str] | None:
+    """The number and the unit (as pint reads it) of a quantity string, or None.
+
+    >>> number_and_unit("68 °C"), number_and_unit("0.24 %"), number_and_unit(5)
+    ((68.0, 'degC'), (0.24, 'percent'), None)
+    """
+    if not isinstance(text, str):
+        return None
+    split = _split(text)
+    if split is None or not split[1]:
+        return None
+    return split[0], _normalise_unit(split[1])
 
 
 def parse_quantity(text: str | float, dimension: str) -> float:
@@ -201,10 +243,8 @@ def parse_quantity(text: str | float, dimension: str) -> float:
     if isinstance(text, bool) or not isinstance(text, (str, int, float)):
         raise UnitError(f"{expected}, got {describe(text)}")
     if not isinstance(text, str):
-        number = _show_number(text)
-        raise UnitError(
-            f"{expected}, got a bare number {number}: add a unit, "
-            f"e.g. '{number} {EXAMPLES[dimension].split(' ', 1)[1]}'"
+        raise BareNumberError(
+            expected, _show_number(text), _as_float(text), EXAMPLES[dimension].split(" ", 1)[1]
         )
     split = _split(text)
     if split is None:
@@ -213,9 +253,8 @@ def parse_quantity(text: str | float, dimension: str) -> float:
     if not math.isfinite(magnitude):
         raise UnitError(f"{expected}, got '{text}': the number is out of range")
     if not unit_text:
-        raise UnitError(
-            f"{expected}, got a bare number {text.strip()}: add a unit, "
-            f"e.g. '{text.strip()} {EXAMPLES[dimension].split(' ', 1)[1]}'"
+        raise BareNumberError(
+            expected, text.strip(), magnitude, EXAMPLES[dimension].split(" ", 1)[1]
         )
     unit = _normalise_unit(unit_text)
     if len(unit) > _MAX_UNIT_LENGTH or not _UNIT_CHARS.match(unit):
@@ -274,16 +313,22 @@ def _convert(magnitude: float, unit: str, dimension: str, complaint: str) -> flo
             value = float(quantity.to(SI_UNITS[dimension]).magnitude)
         except Exception:
             raise UnitError(f"{complaint}: the value is out of range") from None
+    value = _tidy(value)
     if not math.isfinite(value):
         raise UnitError(f"{complaint}: the value is out of range")
-    return _tidy(value)
+    return value
 
 
 def _tidy(value: float) -> float:
     """Round to 15 significant digits: "70 %" is 0.7, not 0.7000000000000001.
 
     Float conversion factors leave noise in the 16th-17th digit; no reading in a room
-    file is known to better than a few digits.
+    file is known to better than a few digits. Rounding can carry the largest floats
+    to infinity (1.7976931348623157e308 becomes 1.79769313486232e308): the caller
+    checks the result is finite.
+
+    >>> _tidy(1.7976931348623157e308)
+    inf
     """
     return float(f"{value:.15g}")
 
@@ -325,6 +370,8 @@ def describe(value: object) -> str:
         return f"the number {_show_number(value)}"
     if isinstance(value, str):
         shown = value if len(value) <= 60 else value[:57] + "..."
+        # a lone surrogate cannot be printed: show it as its escape
+        shown = shown.encode("utf-8", "backslashreplace").decode("utf-8")
         return f"'{shown}'"
     if isinstance(value, list):
         return "a list"

@@ -82,15 +82,27 @@ _LOWEST_MANTISSA: dict[str, Decimal] = {"mJ": Decimal("0.01")}
 _KELVIN_OFFSET = 273.15
 
 
-def _significant(x: float, sig: int) -> str:
+def _significant(x: float | Decimal, sig: int) -> str:
     """`x` (not negative) rounded to `sig` significant figures, plain decimal notation.
 
     >>> _significant(0.000123456, 3), _significant(149_999.0, 2), _significant(4.5, 3)
     ('0.000123', '150000', '4.5')
+
+    Numbers no room can hold (beyond 10^±15) print in exponent form, never as
+    hundreds of digits:
+
+    >>> _significant(Decimal("1.5e312"), 3), _significant(5e-324, 2)
+    ('1.5e+312', '4.9e-324')
     """
     if x == 0:
         return "0"
-    text = format(Decimal(f"{x:.{sig - 1}e}"), "f")
+    rounded = Decimal(f"{x:.{sig - 1}e}")
+    if not -15 <= rounded.adjusted() <= 15:
+        mantissa, exponent = f"{rounded:.{sig - 1}e}".split("e")
+        if "." in mantissa:
+            mantissa = mantissa.rstrip("0").rstrip(".")
+        return f"{mantissa}e{exponent}"
+    text = format(rounded, "f")
     if "." in text:
         text = text.rstrip("0").rstrip(".")
     return text
@@ -134,15 +146,32 @@ def _render(value: float, unit: str, sig: int) -> tuple[str, float | Fraction]:
     if magnitude == 0:
         zero = next((entry for entry in ladder if entry[0] == 1), ladder[0])
         return f"0 {zero[1]}", Fraction(0)
-    text = _significant(magnitude / float(chosen[0]), sig)
+    text = _significant(_scaled(magnitude, chosen[0]), sig)
     for size, symbol in reversed(ladder):
-        candidate = _significant(magnitude / float(size), sig)
+        candidate = _significant(_scaled(magnitude, size), sig)
         if Decimal(candidate) >= _LOWEST_MANTISSA.get(symbol, Decimal(1)):
             chosen, text = (size, symbol), candidate
             break
     shown = Fraction(Decimal(text)) * chosen[0]
     negative = value < 0 and shown != 0
     return f"{MINUS if negative else ''}{text} {chosen[1]}", (-shown if negative else shown)
+
+
+def _scaled(magnitude: float, size: Fraction) -> float | Decimal:
+    """`magnitude` in display units of `size`; in decimal where a float would overflow.
+
+    Float division as always for the values a room gives (so texts stay as they were);
+    decimal only past a float's range, never infinity.
+
+    >>> _scaled(6.195e-3, Fraction(1, 10**3))
+    6.195
+    >>> _scaled(1e300, Fraction(1, 10**12)) > Decimal("1e311")  # 1e300 F in pF
+    True
+    """
+    scaled = magnitude / float(size)
+    if math.isinf(scaled) or (scaled == 0.0 and magnitude != 0.0):
+        return Decimal(magnitude) * size.denominator / size.numerator
+    return scaled
 
 
 def _base_symbol(unit: str, ladder: _Ladder | None) -> str:
