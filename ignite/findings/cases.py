@@ -8,6 +8,7 @@ from collections.abc import Iterator
 
 from ignite.findings.registry import Context, Item, Scope, result
 from ignite.records.results import CaseResult
+from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences
 from ignite.wording.numbers import format_duration, format_si
 
@@ -48,7 +49,7 @@ def _drape_advice(case: CaseResult, scope: Scope) -> str:
         computed_governs=case.safe_draping_after_s >= (label_minimum or 0.0),
         computed_wait=round_up(case.safe_draping_after_s),
         wet_where=wet_where,
-        drying_time=case.drying_time_s,
+        drying_time=sentences.drying_time(case.drying_time_s, HORIZON),
         label_hair=label_hair if case.hair and label_hair else None,
     )
 
@@ -78,7 +79,8 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "materials_mitigation": _materials_advice(case, scope),
         "materials": ", ".join(case.materials_sustain_burning) or "none",
         "holding_charge": ", ".join(case.materials_holding_charge) or "none",
-        "drying_time": format_duration(case.drying_time_s),
+        "drying_time": sentences.drying_time(case.drying_time_s, HORIZON),
+        "activation_wait": sentences.activation_wait(case.drying_time_s, HORIZON),
         "safe_draping": format_duration(round_up(case.safe_draping_after_s)),
         "draping_after": format_duration(case.draping_after_s),
         "first_activation": format_duration(case.first_activation_after_s),

@@ -8,6 +8,7 @@ and the caution), they say it the same way.
 from __future__ import annotations
 
 from ignite.records.results import SEVERITIES, ChargeResult, Finding, Results, severity_rank
+from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_duration, format_si
 
@@ -177,6 +178,7 @@ def render_text(results: Results) -> str:
                     case.first_activation_after_s,
                     case.pocket_vapour_peak_fraction_of_lfl,
                     case.safe_draping_after_s,
+                    HORIZON,
                 )
             )
             out.append(

@@ -387,7 +387,8 @@ class FilmModel:
     def flammable_left(self, state: Sequence[float]) -> float:
         if self.flammable_mass0 <= 0.0:
             return 0.0
-        return float(self.flammable_mass(state) / self.flammable_mass0)
+        # a fraction of what was applied: rounding in the solve never takes it past 0 or 1
+        return min(1.0, max(0.0, float(self.flammable_mass(state) / self.flammable_mass0)))
 
     def pocket_index(self, concentrations: Sequence[float]) -> float:
         """Pocket vapour as a fraction of the LFL; the pocket's gas is at room temperature."""

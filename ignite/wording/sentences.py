@@ -277,8 +277,25 @@ def triad_oxidant_why(while_flowing: str, at_activation: str, enriched_limit: st
     )
 
 
-def prep_dries_in(duration: str) -> str:
-    return f"prep dries in {duration}"
+def drying_time(seconds: float | None, horizon_s: float) -> str:
+    """A computed drying time; an infinite one says the model found the prep still wet."""
+    if seconds is not None and math.isinf(seconds):
+        return f"over {format_duration(horizon_s)} (still wet at the end of the model's horizon)"
+    return format_duration(seconds)
+
+
+def activation_wait(seconds: float | None, horizon_s: float) -> str:
+    """How long to wait before the first activation, from the computed drying time."""
+    if seconds is not None and math.isinf(seconds):
+        return (
+            "the prep is seen to be dry: the model finds it still wet "
+            f"{format_duration(horizon_s)} after the prep"
+        )
+    return f"{format_duration(seconds)} after the prep"
+
+
+def prep_dries_in(seconds: float | None, horizon_s: float) -> str:
+    return f"prep dries in {drying_time(seconds, horizon_s)}"
 
 
 def materials_keep_burning(names: str) -> str:
@@ -676,9 +693,10 @@ def text_prep_drying(
     activation_s: float | None,
     pocket_peak_of_lfl: float | None,
     safe_draping_s: float | None,
+    horizon_s: float,
 ) -> str:
     return (
-        f"prep dries in {format_duration(drying_s)}; drapes at "
+        f"{prep_dries_in(drying_s, horizon_s)}; drapes at "
         f"{format_duration(draping_s)}, first activation at {format_duration(activation_s)}; "
         f"pocket peak {format_si(pocket_peak_of_lfl, 'fraction')} of LFL; "
         f"safe to drape after {format_duration(safe_draping_s)}"
@@ -995,11 +1013,17 @@ def drape_no_earlier_than(
     computed_governs: bool,
     computed_wait: float | None,
     wet_where: str,
-    drying_time: float | None,
+    drying_time: str,
     label_hair: float | None,
 ) -> str:
     """The draping advice: the wait, what sets it, and (`wet_where`: "in hair", "where it pooled"
-    or "") how long the held liquid stays wet."""
+    or "") how long the held liquid stays wet (`drying_time`, worded by `drying_time()`)."""
+    if wait is not None and math.isinf(wait):
+        return (
+            "Do not drape over this prep while it is wet: whenever the drapes go on, the model "
+            "finds the pocket's vapour above the margin of the LFL. Blot it, and let it dry in "
+            "open air before draping."
+        )
     text = f"Drape no earlier than {format_duration(wait)} after the end of the prep"
     if computed_governs:
         text += " (computed: keeps the drape pocket within the margin of the LFL)."
@@ -1007,7 +1031,7 @@ def drape_no_earlier_than(
         text += f" (the label's minimum; the computed pocket limit is {format_duration(computed_wait)})."
     if wet_where:
         text += (
-            f" The liquid {wet_where} is computed to stay wet for {format_duration(drying_time)}"
+            f" The liquid {wet_where} is computed to stay wet for {drying_time}"
             + (
                 f" (the label allows up to {format_duration(label_hair)} in hair)"
                 if label_hair is not None

@@ -29,6 +29,7 @@ from ignite.records.results import (
     RuleRow,
     severity_rank,
 )
+from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
 from ignite.wording.numbers import (
     NO_VALUE,
@@ -386,6 +387,8 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         drying, activation = format_against_limit(
             case.drying_time_s, case.first_activation_after_s, "s"
         )
+        if math.isinf(case.drying_time_s):
+            drying = say.drying_time(case.drying_time_s, HORIZON)
         rows.append(
             (
                 say.DRYING_TIME,
@@ -400,7 +403,7 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
             )
         )
     elif case.drying_time_s is not None:
-        rows.append((say.DRYING_TIME, format_duration(case.drying_time_s), "", ""))
+        rows.append((say.DRYING_TIME, say.drying_time(case.drying_time_s, HORIZON), "", ""))
     if case.drying_time_s is not None and case.mass_transfer_regime:
         coldest = case.film_temperature_min_K
         rows.append(
@@ -520,7 +523,7 @@ def _triad(case: CaseResult, limit_text: str) -> tuple[TriadElement, ...]:
     )
     fuel_parts = []
     if case.drying_time_s is not None:
-        fuel_parts.append(say.prep_dries_in(format_duration(case.drying_time_s)))
+        fuel_parts.append(say.prep_dries_in(case.drying_time_s, HORIZON))
     if case.materials_sustain_burning:
         fuel_parts.append(say.materials_keep_burning(", ".join(case.materials_sustain_burning)))
     ignition_why = ", ".join(case.ignition_sources) if case.ignition_sources else say.NONE_LISTED
