@@ -654,3 +654,23 @@ def test_duplicate_room_ids_are_a_warning_on_the_console_and_in_the_register(
     assert rows["c.yaml"]["warnings"] == ""
     record = json.loads((out / REGISTER_JSON).read_text(encoding="utf-8"))
     assert any("given by 2 room files" in w for w in record["rooms"][0]["warnings"])
+
+
+def test_an_interruption_after_publication_says_the_output_is_complete(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import importlib
+
+    cli = importlib.import_module("ignite.cli.audit")
+    _, complete = _steps_of_a_clean_audit(site, tmp_path)
+
+    def interrupted(*args: Any) -> int:
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(cli, "_report", interrupted)
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 130
+    assert "interrupted after its output was in place" in result.stderr
+    assert "3 worksheet(s), complete" in result.stderr
+    assert snapshot(out) == complete

@@ -148,8 +148,38 @@ def audit(
     paper: str,
 ) -> None:
     # lazy, for start-up time: every ignite command loads this module, few run an audit
+    from ignite.audit.run import AuditInterrupted
+
+    # Ctrl-C or SIGTERM at any moment ends in one message saying what OUTDIR holds.
+    old_handler = signal.signal(signal.SIGTERM, _terminate)
+    done: list[AuditOutcome] = []
+    try:
+        done.append(_audit(folder, output, previous, jobs, rules_dir, force, paper))
+        code = _report(done[0], fail_on)
+    except KeyboardInterrupt as exc:
+        cause = exc.cause if isinstance(exc, AuditInterrupted) else exc
+        if isinstance(exc, AuditInterrupted):
+            published = exc.published
+        else:
+            published = (*done[0].worksheets, *done[0].written) if done else ()
+        _say(_interrupted(output, published, force))
+        _exit(EXIT_TERMINATED if isinstance(cause, _Terminated) else EXIT_INTERRUPTED)
+    finally:
+        signal.signal(signal.SIGTERM, old_handler)
+    _exit(code)
+
+
+def _audit(
+    folder: Path,
+    output: Path,
+    previous: Path | None,
+    jobs: int | None,
+    rules_dir: Path | None,
+    force: bool,
+    paper: str,
+) -> AuditOutcome:
     from ignite.audit.io import RegisterError, existing_audit_files, read_register
-    from ignite.audit.run import AuditInterrupted, discover_rooms, run_audit
+    from ignite.audit.run import discover_rooms, run_audit
     from ignite.errors import OutputExistsError, RuleFileError
     from ignite.pipeline import open_rulebook
 
@@ -183,33 +213,25 @@ def audit(
         else:
             bar.update(1)
 
-    old_handler = signal.signal(signal.SIGTERM, _terminate)
+    if bar is not None:
+        bar.__enter__()
     try:
-        if bar is not None:
-            bar.__enter__()
-        try:
-            outcome = run_audit(
-                folder,
-                output,
-                book,
-                rules_dir=rules_dir,
-                previous=register,
-                jobs=jobs,
-                paper=paper,
-                force=force,
-                progress=progress,
-            )
-        finally:
-            if bar is not None:
-                bar.__exit__(None, None, None)
+        return run_audit(
+            folder,
+            output,
+            book,
+            rules_dir=rules_dir,
+            previous=register,
+            jobs=jobs,
+            paper=paper,
+            force=force,
+            progress=progress,
+        )
     except OutputExistsError as exc:
         _refuse(output, [exc.path.name], exc.exit_code)
-    except AuditInterrupted as exc:
-        _say(_interrupted(output, exc.published, force))
-        _exit(EXIT_TERMINATED if isinstance(exc.cause, _Terminated) else EXIT_INTERRUPTED)
     finally:
-        signal.signal(signal.SIGTERM, old_handler)
-    _exit(_report(outcome, fail_on))
+        if bar is not None:
+            bar.__exit__(None, None, None)
 
 
 def _interrupted(output: Path, published: tuple[Path, ...], force: bool) -> str:
@@ -219,7 +241,14 @@ def _interrupted(output: Path, published: tuple[Path, ...], force: bool) -> str:
             f"ignite: audit interrupted after its output was in place: {output} holds the "
             f"register, the summary and {len(published) - 3} worksheet(s), complete."
         )
-    again = "with --force, as before" if force else "--force is not needed"
+    from ignite.audit.io import existing_audit_files
+
+    if force:
+        again = "with --force, as before"
+    elif existing_audit_files(output):  # stopped before the check that would have refused
+        again = "it holds an earlier audit, so --force is needed to replace it"
+    else:
+        again = "--force is not needed"
     return (
         f"ignite: audit interrupted before its output was published: nothing of this run is "
         f"in {output} (it is as it was). Run it again to finish; {again}."
