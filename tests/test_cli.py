@@ -393,3 +393,10 @@ def test_check_json_is_one_array_for_one_room_and_for_many(room_data, write_room
     broken = write_room({"format": 1}, "broken.yaml")
     result = run("check", str(broken), "--format", "json")
     assert result.exit_code == 3 and json.loads(result.stdout) == []
+
+
+def test_a_rules_folder_that_does_not_exist_is_a_usage_error(room_data, write_room, tmp_path):
+    missing = tmp_path / "no-rules"
+    result = run("check", str(write_room(room_data)), "--rules", str(missing))
+    assert result.exit_code == 2
+    assert str(missing) in result.stderr and "does not exist" in result.stderr

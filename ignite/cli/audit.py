@@ -126,7 +126,7 @@ def _room_line(run: RoomRun, done: int, total: int) -> str:
 @click.option(
     "--rules",
     "rules_dir",
-    type=click.Path(file_okay=False, path_type=Path),
+    type=click.Path(exists=True, file_okay=False, path_type=Path),
     default=None,
     help="Folder of rule files to use instead of the packaged rules/.",
 )
