@@ -10,6 +10,8 @@ everything in one pass. Each error carries the exit code the command line ends w
 
 from __future__ import annotations
 
+import os
+import stat
 from collections.abc import Iterable
 from dataclasses import dataclass
 from pathlib import Path
@@ -37,8 +39,9 @@ class Problem:
         return f"{where}: {self.message}"
 
 
-EXIT_USAGE = 2  # usage error, or an output exists and --force was not given
+EXIT_USAGE = 2  # usage error, a path that cannot be read or written, or an output exists
 EXIT_INVALID = 3  # invalid room or rule file
+EXIT_INTERNAL = 4  # an unexpected internal error (a defect of ignite: please report it)
 
 
 class IgniteError(Exception):
@@ -78,6 +81,71 @@ class OutputExistsError(IgniteError):
     def __init__(self, path: Path | str) -> None:
         self.path = Path(path)
         super().__init__(f"{self.path} exists; use --force to overwrite it")
+
+
+class PathError(IgniteError):
+    """A path that cannot be read or written (a usage error): one line naming it and why.
+
+    >>> str(PathError("out/x.pdf", "cannot be written", "Not a directory"))
+    'out/x.pdf: cannot be written: Not a directory'
+    """
+
+    exit_code = EXIT_USAGE
+
+    def __init__(self, path: Path | str, action: str, reason: str) -> None:
+        self.path = Path(path)
+        self.action = action
+        self.reason = reason
+        super().__init__(f"{path}: {action}: {reason}")
+
+    @classmethod
+    def from_os_error(cls, exc: OSError, action: str, path: Path | str | None = None) -> PathError:
+        """The `PathError` an `OSError` stands for; `path` when the error names none."""
+        where = exc.filename if exc.filename is not None else path
+        return cls(str(where if where is not None else "?"), action, exc.strerror or str(exc))
+
+    @classmethod
+    def unwritable(cls, path: Path | str, exc: OSError) -> PathError:
+        """`path` cannot be written because of `exc`; a file in the way is named as such.
+
+        >>> import tempfile
+        >>> with tempfile.NamedTemporaryFile() as handle:
+        ...     error = PathError.unwritable(Path(handle.name) / "x.pdf", FileExistsError())
+        ...     str(error).endswith(f"cannot be written: {handle.name} is a file, not a folder")
+        True
+        """
+        for parent in Path(path).parents:
+            if parent.exists() or parent.is_symlink():
+                if not parent.is_dir():
+                    return cls(path, "cannot be written", f"{parent} is a file, not a folder")
+                break
+        return cls(path, "cannot be written", exc.strerror or str(exc))
+
+
+def unreadable(path: Path | str) -> str | None:
+    """Why `path` cannot be read as a room file, or None when it can.
+
+    Only regular files are read (a named pipe or a device could block for ever).
+
+    >>> unreadable("/")
+    'is a folder, not a file'
+    """
+    try:
+        mode = os.stat(path).st_mode
+    except OSError as exc:
+        return exc.strerror or str(exc)
+    if stat.S_ISDIR(mode):
+        return "is a folder, not a file"
+    if stat.S_ISFIFO(mode):
+        return "is a named pipe, not a regular file"
+    if not stat.S_ISREG(mode):
+        return "is not a regular file"
+    try:
+        with open(path, "rb"):
+            pass
+    except OSError as exc:
+        return exc.strerror or str(exc)
+    return None
 
 
 class UnitError(ValueError):

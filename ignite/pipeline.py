@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ignite.errors import InputError, OutputExistsError, Problem
+from ignite.errors import InputError, OutputExistsError, PathError, Problem
 from ignite.findings.evaluate import evaluate, known_results
 from ignite.physics import vapour
 from ignite.physics.vapour import SubstanceDataError
@@ -92,7 +92,11 @@ def worksheet_path(results: Results, output: Path | None) -> Path:
 def write_room_worksheet(
     path: Path, book: Rulebook, output: Path | None, *, force: bool = False, paper: str = "a4"
 ) -> tuple[Results, Path]:
-    """Assess one room and write its worksheet; raises InputError or OutputExistsError."""
+    """Assess one room and write its worksheet.
+
+    Raises InputError (the room file), OutputExistsError, or PathError when the worksheet
+    cannot be written (the message names the path and the reason).
+    """
 
     bound, results = evaluate_room(path, book)
     target = worksheet_path(results, output)
@@ -106,6 +110,9 @@ def write_room_worksheet(
         text,
         paper="letter" if paper.lower() == "letter" else "A4",
     )
-    target.parent.mkdir(parents=True, exist_ok=True)
-    write_worksheet(target, data, force=force)
+    try:
+        target.parent.mkdir(parents=True, exist_ok=True)
+        write_worksheet(target, data, force=force)
+    except OSError as exc:  # a folder in the way is a file, no permission, disk full, ...
+        raise PathError.unwritable(target, exc) from None
     return results, target

@@ -331,7 +331,7 @@ def test_an_internal_error_is_listed_and_the_rest_carry_on(
     monkeypatch.setattr(ignite.pipeline, "evaluate_room", failing)
     out = tmp_path / "out"
     result = audit(site, "-o", out, "--jobs", "1")
-    assert result.exit_code == 3
+    assert result.exit_code == 4  # an internal error outranks the invalid room (3)
     rows = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}
     assert (
         rows["t1.yaml"]["status"] == "error" and "ZeroDivisionError" in rows["t1.yaml"]["problems"]
@@ -398,3 +398,279 @@ def test_discovery_is_recursive_sorted_and_skips_hidden(tmp_path: Path) -> None:
         (tmp_path / name).write_text("", encoding="utf-8")
     found = [p.relative_to(tmp_path).as_posix() for p in discover_rooms(tmp_path)]
     assert found == ["a/b.yaml", "a/c.YML", "b.yaml"]
+
+
+# Publication all or nothing (issue 14, item 5). The audit's files are moved into place by
+# `ignite.audit.io._place`, one call per file that changes: here each step is made to fail,
+# to be interrupted, or to receive a real SIGINT, and the folder is checked afterwards.
+
+
+def _steps_of_a_clean_audit(site: Path, tmp_path: Path) -> tuple[int, dict[str, bytes]]:
+    clean = tmp_path / "clean"
+    audit(site, "-o", clean, "--jobs", "1")
+    files = snapshot(clean)
+    return len(files), files
+
+
+def _fail_at(monkeypatch: pytest.MonkeyPatch, step: int, error: BaseException) -> list[int]:
+    import ignite.audit.io
+
+    real = ignite.audit.io._place
+    calls: list[int] = []
+
+    def place(*args: Any) -> None:
+        calls.append(len(calls))
+        if len(calls) - 1 == step:
+            raise error
+        real(*args)
+
+    monkeypatch.setattr(ignite.audit.io, "_place", place)
+    return calls
+
+
+@pytest.mark.parametrize("step", range(6))  # 3 worksheets, the two registers, the summary
+def test_an_interruption_at_any_step_leaves_the_folder_as_it_was(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch, step: int
+) -> None:
+    count, complete = _steps_of_a_clean_audit(site, tmp_path)
+    assert count == 6
+    out = tmp_path / "out"
+    calls = _fail_at(monkeypatch, step, KeyboardInterrupt())
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert len(calls) == step + 1
+    assert result.exit_code == 130
+    assert "nothing of this run is in" in result.stderr and "--force is not needed" in result.stderr
+    assert snapshot(out) == {}  # no file, no temporary file, no journal, no staging folder
+    monkeypatch.undo()
+    again = audit(site, "-o", out, "--jobs", "1")  # run it again, without --force
+    assert again.exit_code == 3 and snapshot(out) == complete
+
+
+@pytest.mark.parametrize("step", [0, 2, 5])
+def test_a_failure_while_replacing_an_earlier_audit_puts_it_back(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch, step: int
+) -> None:
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    before = snapshot(out)
+    # every room changes, so --force replaces every file: six steps, each with a backup
+    for name, readings in (
+        ("t1.yaml", ["210 kΩ"]),
+        ("east/t2.yml", ["130 kΩ"]),
+        ("east/t3.yaml", ["110 kΩ"]),
+    ):
+        write(site, name, room(Path(name).stem.upper(), readings))
+    _fail_at(monkeypatch, step, PermissionError(13, "Permission denied", str(out / "x")))
+    result = audit(site, "-o", out, "--jobs", "1", "--force")
+    assert result.exit_code == 2
+    assert f"ignite: {out / 'x'}: cannot be written: Permission denied" in result.stderr
+    assert snapshot(out) == before  # the earlier audit, byte for byte
+
+
+def test_a_signal_while_the_files_move_is_held_until_all_are_in_place(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import os
+    import signal
+
+    import ignite.audit.io
+
+    _, complete = _steps_of_a_clean_audit(site, tmp_path)
+    real = ignite.audit.io._place
+    calls: list[int] = []
+
+    def place(*args: Any) -> None:
+        calls.append(1)
+        if len(calls) == 2:  # Ctrl-C, for real, after the first file moved
+            os.kill(os.getpid(), signal.SIGINT)
+        real(*args)
+
+    monkeypatch.setattr(ignite.audit.io, "_place", place)
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 130
+    assert "interrupted after its output was in place" in result.stderr
+    assert "3 worksheet(s), complete" in result.stderr
+    assert snapshot(out) == complete
+
+
+class _Killed(BaseException):
+    """Stands for SIGKILL: the process stops where it is, no clean-up runs."""
+
+
+def test_a_run_killed_while_publishing_is_undone_by_the_next(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import ignite.audit.io
+    from ignite.audit.io import JOURNAL, existing_audit_files
+
+    _, complete = _steps_of_a_clean_audit(site, tmp_path)
+    out = tmp_path / "out"
+    _fail_at(monkeypatch, 4, _Killed())  # the worksheets and the CSV register are in place
+
+    def no_clean_up(*args: Any) -> None:
+        raise _Killed
+
+    monkeypatch.setattr(ignite.audit.io, "_roll_back", no_clean_up)
+    with pytest.raises(_Killed):
+        audit(site, "-o", out, "--jobs", "1")
+    left = snapshot(out)
+    assert JOURNAL in left and REGISTER_CSV in left and REGISTER_JSON not in left
+    monkeypatch.undo()
+    monkeypatch.setattr(ignite.audit.io, "_process_alive", lambda pid: False)  # it was killed
+    assert existing_audit_files(out) == []  # the CSV is the unfinished run's, not an audit
+    again = audit(site, "-o", out, "--jobs", "1")  # without --force
+    assert again.exit_code == 3, again.stderr
+    assert snapshot(out) == complete
+
+
+def test_while_another_audit_publishes_into_the_folder_nothing_is_touched(
+    site: Path, tmp_path: Path
+) -> None:
+    import os
+
+    from ignite.audit.io import JOURNAL
+
+    out = tmp_path / "out"
+    out.mkdir()
+    (out / JOURNAL).write_text(f'{{"pid": {os.getpid()}, "files": []}}', encoding="utf-8")
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 2
+    assert "another audit" in result.stderr and f"process {os.getpid()}" in result.stderr
+    assert sorted(snapshot(out)) == [JOURNAL]
+
+
+def test_publish_removes_its_temporary_file_on_every_path(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import os
+
+    from ignite.audit.io import publish
+
+    def full(descriptor: int) -> None:
+        raise OSError(28, "No space left on device")
+
+    monkeypatch.setattr(os, "fsync", full)
+    with pytest.raises(OSError):
+        publish(tmp_path / "audit-register.csv", b"data", force=False)
+    assert list(tmp_path.iterdir()) == []
+
+
+# Paths that cannot be read or written (issue 14, item 2)
+
+
+def test_an_output_folder_below_a_file_is_a_usage_error(site: Path, tmp_path: Path) -> None:
+    blocker = tmp_path / "plain-file"
+    blocker.write_text("x", encoding="utf-8")
+    result = audit(site, "-o", blocker / "out", "--jobs", "1")
+    assert result.exit_code == 2
+    assert f"ignite: {blocker / 'out'}: cannot be written: {blocker} is a file, not a folder\n" in (
+        result.stderr
+    )
+    assert "Traceback" not in result.stderr and blocker.read_text(encoding="utf-8") == "x"
+
+
+def test_a_named_pipe_among_the_rooms_is_listed_not_waited_for(site: Path, tmp_path: Path) -> None:
+    import os
+
+    os.mkfifo(site / "pipe.yaml")
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 3
+    rows = {row["file"]: row for row in csv_rows(out / REGISTER_CSV)}
+    assert rows["pipe.yaml"]["status"] == "invalid"
+    assert (
+        rows["pipe.yaml"]["problems"]
+        == "pipe.yaml: cannot be read: is a named pipe, not a regular file"
+    )
+
+
+def test_an_unencodable_file_name_reaches_the_register_replaced(tmp_path: Path) -> None:
+    import os
+
+    rooms = tmp_path / "rooms"
+    rooms.mkdir()
+    # a file name that is not UTF-8: Python holds the byte 0xFF as the lone surrogate U+DCFF
+    name = os.fsdecode(b"r\xff.yaml")
+    write(rooms, name, room("S1", ["200 kΩ"]))
+    out = tmp_path / "out"
+    result = audit(rooms, "-o", out, "--jobs", "1")
+    assert result.exit_code == 0, result.stderr
+    (row,) = csv_rows(out / REGISTER_CSV)
+    assert row["file"] == "r?.yaml"
+    record = json.loads((out / REGISTER_JSON).read_text(encoding="utf-8"))
+    assert record["rooms"][0]["file"] == "r?.yaml"
+
+
+# The register (issue 14, item 7)
+
+
+def test_register_cells_a_spreadsheet_would_run_are_neutralised(tmp_path: Path) -> None:
+    # OWASP "CSV Injection": cells starting with =, +, -, @, tab or carriage return are
+    # prefixed with a single quote so that a spreadsheet shows them as text.
+    dangerous = {
+        "name": '=HYPERLINK("http://example.invalid","x")',
+        "assessor": "@SUM(1+1)",
+        "purpose": "pre-list",
+    }
+    rooms = tmp_path / "rooms"
+    write(rooms, "-2+3.yaml", room("T1", ["200 kΩ"], **dangerous))  # ids start alphanumeric
+    out = tmp_path / "out"
+    result = audit(rooms, "-o", out, "--jobs", "1")
+    assert result.exit_code == 0, result.stderr
+    (row,) = csv_rows(out / REGISTER_CSV)
+    assert row["room_name"] == "'" + dangerous["name"]
+    assert row["assessor"] == "'@SUM(1+1)"
+    assert row["file"] == "'-2+3.yaml"
+    for cell in row.values():
+        assert not cell.startswith(("=", "+", "-", "@", "\t", "\r"))
+    # the JSON register holds the values as they are; reading the CSV back restores them
+    record = json.loads((out / REGISTER_JSON).read_text(encoding="utf-8"))["rooms"][0]
+    assert record["room_name"] == dangerous["name"] and record["file"] == "-2+3.yaml"
+    (back,) = read_register(out / REGISTER_CSV).rows
+    assert (back.file, back.room_id, back.room_name, back.assessor) == (
+        "-2+3.yaml",
+        "T1",
+        dangerous["name"],
+        "@SUM(1+1)",
+    )
+
+
+def test_duplicate_room_ids_are_a_warning_on_the_console_and_in_the_register(
+    tmp_path: Path,
+) -> None:
+    rooms = tmp_path / "rooms"
+    write(rooms, "a.yaml", room("T1", ["200 kΩ"]))
+    write(rooms, "b.yaml", room("t1", ["300 kΩ"]))  # ids differing only in case collide too
+    write(rooms, "c.yaml", room("T3", ["300 kΩ"]))
+    out = tmp_path / "out"
+    result = audit(rooms, "-o", out, "--jobs", "1")
+    assert result.exit_code == 0
+    assert "warning: a.yaml: room id T1 is given by 2 room files (also b.yaml)" in result.stderr
+    assert "warning: b.yaml: room id t1 is given by 2 room files (also a.yaml)" in result.stderr
+    rows = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}
+    assert "room id T1 is given by 2 room files" in rows["a.yaml"]["warnings"]
+    assert "also a.yaml" in rows["b.yaml"]["warnings"]
+    assert rows["c.yaml"]["warnings"] == ""
+    record = json.loads((out / REGISTER_JSON).read_text(encoding="utf-8"))
+    assert any("given by 2 room files" in w for w in record["rooms"][0]["warnings"])
+
+
+def test_an_interruption_after_publication_says_the_output_is_complete(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import importlib
+
+    cli = importlib.import_module("ignite.cli.audit")
+    _, complete = _steps_of_a_clean_audit(site, tmp_path)
+
+    def interrupted(*args: Any) -> int:
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(cli, "_report", interrupted)
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1")
+    assert result.exit_code == 130
+    assert "interrupted after its output was in place" in result.stderr
+    assert "3 worksheet(s), complete" in result.stderr
+    assert snapshot(out) == complete

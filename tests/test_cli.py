@@ -8,7 +8,7 @@ import yaml
 from click.testing import CliRunner
 from conftest import ROOT
 
-from ignite.cli.main import main
+from ignite.cli.main import CAUTION, main
 from ignite.errors import (
     IgniteError,
     InputError,
@@ -34,7 +34,7 @@ def test_check_text_prints_the_floor_and_the_caution(room_data, write_room):
 def test_check_json_is_the_contract_record(room_data, write_room):
     result = run("check", str(write_room(room_data)), "--format", "json")
     assert result.exit_code == 0
-    record = json.loads(result.stdout)
+    (record,) = json.loads(result.stdout)  # one room: an array of one record
     for key in (
         "format",
         "tool_version",
@@ -109,10 +109,14 @@ def test_bad_yaml_gives_exit_three(tmp_path):
     assert "bad.yaml:" in result.stderr
 
 
-def test_missing_file_gives_exit_three(tmp_path):
-    result = run("check", str(tmp_path / "nowhere.yaml"))
-    assert result.exit_code == 3
-    assert "nowhere.yaml" in result.stderr
+def test_a_room_path_that_cannot_be_read_is_a_usage_error(tmp_path):
+    missing = tmp_path / "nowhere.yaml"
+    result = run("check", str(missing))
+    assert result.exit_code == 2
+    assert result.stderr == f"ignite: {missing}: cannot be read: No such file or directory\n"
+    result = run("check", str(tmp_path))
+    assert result.exit_code == 2
+    assert result.stderr == f"ignite: {tmp_path}: cannot be read: is a folder, not a file\n"
 
 
 def test_one_bad_room_does_not_stop_the_others(room_data, write_room):
@@ -263,3 +267,136 @@ def test_invalid_rules_folder_stops_assess_with_exit_three(tmp_path, room_data, 
     assert result.exit_code == 3
     assert "ignite: invalid rule file(s):" in result.stderr and "checks.yaml" in result.stderr
     assert not out.exists()
+
+
+# Paths that cannot be read or written, internal errors, encodings (issue 14, item 2)
+
+
+def test_check_on_a_named_pipe_refuses_rather_than_waiting(tmp_path):
+    import os
+    import subprocess
+    import sys
+
+    pipe = tmp_path / "pipe.yaml"
+    os.mkfifo(pipe)
+    # in a child process with a time limit: a regression would block for ever
+    done = subprocess.run(
+        [sys.executable, "-m", "ignite", "check", str(pipe)],
+        capture_output=True,
+        text=True,
+        timeout=120,
+    )
+    assert done.returncode == 2
+    assert done.stderr == f"ignite: {pipe}: cannot be read: is a named pipe, not a regular file\n"
+
+
+def test_new_into_a_missing_folder_creates_it_and_below_a_file_is_a_usage_error(tmp_path):
+    deep = tmp_path / "a" / "b" / "room.yaml"
+    assert run("new", str(deep)).exit_code == 0 and deep.is_file()
+    blocker = tmp_path / "plain-file"
+    blocker.write_text("x")
+    target = blocker / "room.yaml"
+    result = run("new", str(target))
+    assert result.exit_code == 2
+    assert result.stderr == (
+        f"ignite: {target}: cannot be written: {blocker} is a file, not a folder\n"
+    )
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["a", "plain-file"]  # no temp file
+
+
+def test_assess_output_below_a_file_is_a_usage_error(room_data, write_room, tmp_path):
+    room = str(write_room(room_data))
+    blocker = tmp_path / "plain-file"
+    blocker.write_text("x")
+    for output in (blocker / "sheet.pdf", blocker / "folder"):
+        result = run("assess", room, "-o", str(output))
+        assert result.exit_code == 2, result.stderr
+        target = output if output.suffix == ".pdf" else output / "TST-1-2026-12-01.pdf"
+        assert f"ignite: {target}: cannot be written: {blocker} is a file, not a folder\n" in (
+            result.stderr
+        )
+        assert "internal error" not in result.stderr
+
+
+def test_assess_refuses_an_output_that_is_neither_pdf_nor_folder(room_data, write_room, tmp_path):
+    room = str(write_room(room_data))
+    result = run("assess", room, "-o", str(tmp_path / "sheet.txt"))
+    assert result.exit_code == 2
+    assert "a worksheet is a PDF" in result.stderr
+    assert list(tmp_path.glob("sheet.txt*")) == []
+    # a dotted folder name is a folder when it exists or ends with "/"
+    assert run("assess", room, "-o", f"{tmp_path / 'sheets.v2'}/").exit_code == 0
+    assert (tmp_path / "sheets.v2" / "TST-1-2026-12-01.pdf").is_file()
+
+
+def test_an_internal_error_has_its_own_exit_code(room_data, write_room, monkeypatch):
+    import importlib
+
+    cli = importlib.import_module("ignite.cli.main")  # the module; ignite.cli.main is the group
+
+    def failing(path, book):  # type: ignore[no-untyped-def]
+        raise ZeroDivisionError("simulated")
+
+    monkeypatch.setattr(cli, "run_room", failing)
+    result = run("check", str(write_room(room_data)))
+    assert result.exit_code == 4  # README: 4 internal error; never 1 (a finding at --fail-on)
+    assert "internal error ZeroDivisionError: simulated" in result.stderr
+    assert "Traceback" not in result.stderr
+
+    def broken_rules(directory):  # type: ignore[no-untyped-def]
+        raise RuntimeError("simulated, outside any room")
+
+    monkeypatch.setattr(cli, "open_rulebook", broken_rules)
+    result = run("rules")
+    assert result.exit_code == 4
+    assert result.stderr.count("\n") == 1 and "internal error RuntimeError" in result.stderr
+
+
+def test_the_readme_documents_every_exit_code():
+    readme = (ROOT / "README.md").read_text(encoding="utf-8")
+    for code in ("| 0 |", "| 1 |", "| 2 |", "| 3 |", "| 4 |", "| 130, 143 |"):
+        assert code in readme
+
+
+def test_an_unencodable_character_is_replaced_not_a_crash(room_data, write_room, tmp_path):
+    room_data["people"][0]["role"] = "ROLE"
+    path = write_room(room_data, "surrogate.yaml")
+    # a YAML escape for a lone UTF-16 surrogate: valid YAML, not encodable as UTF-8
+    path.write_text(path.read_text(encoding="utf-8").replace("ROLE", '"\\ud800"'), "utf-8")
+    text = run("check", str(path))
+    assert text.exit_code == 0, text.stderr
+    assert "?" in text.stdout and "Traceback" not in text.stderr
+    result = run("check", str(path), "--format", "json")
+    assert result.exit_code == 0, result.stderr
+    (record,) = json.loads(result.stdout)
+    assert record["people"][0]["role"] == "?"
+
+
+# One JSON shape (issue 14, item 8)
+
+
+def test_check_json_is_one_array_for_one_room_and_for_many(room_data, write_room, book):
+    from ignite.pipeline import run_room
+
+    first = write_room(room_data, "first.yaml")
+    room_data["room"]["id"] = "T2"
+    second = write_room(room_data, "second.yaml")
+    one = json.loads(run("check", str(first), "--format", "json").stdout)
+    two = json.loads(run("check", str(first), str(second), "--format", "json").stdout)
+    assert isinstance(one, list) and isinstance(two, list)
+    assert [r["room"]["id"] for r in two] == ["TST-1", "T2"]  # in the order given
+    # the record inside the array is the contract record, unchanged (plus the caution)
+    expected = json.loads(json.dumps(run_room(first, book).to_record()))
+    expected["caution"] = CAUTION
+    assert one == [expected] and two[0] == expected
+    # a room not assessed is absent (its problems are on stderr); stdout stays valid JSON
+    broken = write_room({"format": 1}, "broken.yaml")
+    result = run("check", str(broken), "--format", "json")
+    assert result.exit_code == 3 and json.loads(result.stdout) == []
+
+
+def test_a_rules_folder_that_does_not_exist_is_a_usage_error(room_data, write_room, tmp_path):
+    missing = tmp_path / "no-rules"
+    result = run("check", str(write_room(room_data)), "--rules", str(missing))
+    assert result.exit_code == 2
+    assert str(missing) in result.stderr and "does not exist" in result.stderr

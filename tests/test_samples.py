@@ -40,7 +40,7 @@ def records() -> dict[str, dict]:
             main, ["check", str(path), "--format", "json"], catch_exceptions=False
         )
         assert result.exit_code == 0, result.stderr
-        found[path.name] = json.loads(result.stdout)
+        (found[path.name],) = json.loads(result.stdout)  # an array of one record
     return found
 
 

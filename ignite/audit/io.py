@@ -1,8 +1,10 @@
-"""The register on disk: its CSV and JSON, written whole or not at all, and read back.
+"""The register on disk: its CSV and JSON, the audit's files published together, and
+the register read back.
 
-`register_csv` and `register_json` turn an `AuditReport` into bytes; `publish` puts
-bytes in place through a temporary file and a rename (never replacing a file unless
-asked); `read_register` reads an earlier audit's register from its JSON or its CSV.
+`register_csv` and `register_json` turn an `AuditReport` into bytes; `publish_all` moves
+a set of staged files into place as one transaction (a journal first, then renames,
+rolled back on any failure); `recover` undoes a publication whose process was killed
+midway; `read_register` reads an earlier audit's register from its JSON or its CSV.
 """
 
 from __future__ import annotations
@@ -13,11 +15,12 @@ import io
 import json
 import os
 import secrets
-from collections.abc import Iterable
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from ignite.errors import IgniteError, OutputExistsError
+from ignite.errors import IgniteError, OutputExistsError, PathError
 from ignite.records.register import (
     ASSESSED,
     ERROR,
@@ -40,6 +43,10 @@ REGISTER_JSON = "audit-register.json"
 SUMMARY_PDF = "audit-summary.pdf"
 AUDIT_FILES = (REGISTER_CSV, REGISTER_JSON, SUMMARY_PDF)
 """The files that mark a folder as holding an audit, in the order they are written."""
+
+JOURNAL = ".ignite-audit-journal.json"
+"""Written before the first file of an audit is moved into place, removed after the last:
+while it is there (and its process is gone), the folder holds an unfinished publication."""
 
 CAUTION = CLI_CAUTION
 REGISTER_FORMAT = 1
@@ -77,6 +84,28 @@ findings, warnings and problems one a line ("rule | severity | subject" for find
 
 _LIST_SEPARATOR = "; "
 _FINDING_SEPARATOR = " | "
+_FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+"""A spreadsheet runs a cell starting with one of these as a formula (OWASP, CSV injection)."""
+
+
+def neutralised(cell: str) -> str:
+    """A CSV cell a spreadsheet shows as text: a leading apostrophe where it would run it.
+
+    The OWASP rule for CSV injection: a cell starting with =, +, -, @, a tab or a carriage
+    return gets a leading single quote. A cell starting with a quote gets one more, so that
+    `restored` gives back exactly what was written.
+
+    >>> neutralised("=1+2"), neutralised("@SUM(A1)"), neutralised("-1"), neutralised("T1")
+    ("'=1+2", "'@SUM(A1)", "'-1", 'T1')
+    >>> restored(neutralised("'quoted")) == "'quoted"
+    True
+    """
+    return "'" + cell if cell.startswith((*_FORMULA_STARTS, "'")) else cell
+
+
+def restored(cell: str) -> str:
+    """A cell of a register CSV as it was before `neutralised`."""
+    return cell[1:] if cell.startswith("'") else cell
 
 
 class RegisterError(IgniteError):
@@ -84,8 +113,15 @@ class RegisterError(IgniteError):
 
 
 def existing_audit_files(output: Path) -> list[Path]:
-    """The files of an earlier audit in `output` (register and summary)."""
-    return [output / name for name in AUDIT_FILES if (output / name).exists()]
+    """The files of an earlier, finished audit in `output` (register and summary).
+
+    Files that an unfinished publication put there (its journal names them, with their
+    bytes, and its process is gone) do not count: `recover` removes them.
+    """
+    unfinished = {entry.name for entry in _stale_entries(output) if not entry.backup}
+    return [
+        output / name for name in AUDIT_FILES if (output / name).exists() and name not in unfinished
+    ]
 
 
 # --------------------------------------------------------------------------- files
@@ -107,11 +143,12 @@ def write_new(path: Path, data: bytes) -> None:
 def publish(path: Path, data: bytes, *, force: bool) -> None:
     """Put `data` at `path` whole or not at all: a temporary file beside it, then a rename.
 
-    Without `force`, an existing file is left alone and `OutputExistsError` raised.
+    Without `force`, an existing file is left alone and `OutputExistsError` raised. The
+    temporary file is removed on every path, even when writing it fails halfway.
     """
     temporary = path.with_name(f".{path.name}.{secrets.token_hex(4)}.tmp")
-    write_new(temporary, data)
     try:
+        write_new(temporary, data)
         move(temporary, path, force=force)
     finally:
         temporary.unlink(missing_ok=True)
@@ -140,6 +177,140 @@ def same_bytes(path: Path, sha256: str) -> bool:
         return path.is_file() and sha256_hex(path.read_bytes()) == sha256
     except OSError:
         return False
+
+
+# --------------------------------------------------------------------------- publishing
+
+
+@dataclass(frozen=True)
+class Staged:
+    """One file of an audit, rendered in the staging folder, and where it goes."""
+
+    source: Path  # in the staging folder
+    name: str  # its name in the output folder
+    sha256: str
+
+
+@dataclass(frozen=True)
+class _Entry:
+    """One line of the journal: a file being put in place, and where the one it replaces went."""
+
+    name: str
+    sha256: str
+    backup: str  # path of the replaced file, relative to the output folder; "" if none
+
+
+def _process_alive(pid: int) -> bool:
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except OSError:
+        return True  # alive, but not ours to signal
+    return True
+
+
+def _read_journal(output: Path) -> tuple[int, list[_Entry]] | None:
+    try:
+        record = json.loads((output / JOURNAL).read_text(encoding="utf-8"))
+        entries = [
+            _Entry(str(e["name"]), str(e["sha256"]), str(e["backup"])) for e in record["files"]
+        ]
+        return int(record["pid"]), entries
+    except FileNotFoundError:
+        return None
+    except (OSError, ValueError, KeyError, TypeError):
+        return 0, []  # unreadable: a crash while writing it, before anything moved
+
+
+def _stale_entries(output: Path) -> list[_Entry]:
+    journal = _read_journal(output)
+    if journal is None:
+        return []
+    pid, entries = journal
+    if pid and _process_alive(pid):
+        return []
+    return [entry for entry in entries if same_bytes(output / entry.name, entry.sha256)]
+
+
+def recover(output: Path) -> list[str]:
+    """Undo a publication whose process died midway (killed, power cut); the names restored.
+
+    Every file it had put in place is removed, and every file it had replaced is put
+    back, so the folder is as it was before that audit. A publication whose process is
+    still running is another audit at work: `PathError`.
+    """
+    journal = _read_journal(output)
+    if journal is None:
+        return []
+    pid, entries = journal
+    if pid and _process_alive(pid):
+        raise PathError(
+            output, "cannot be written", f"another audit (process {pid}) is publishing into it"
+        )
+    _roll_back(output, entries)
+    (output / JOURNAL).unlink(missing_ok=True)
+    return [entry.name for entry in entries]
+
+
+def _roll_back(output: Path, entries: Sequence[_Entry]) -> None:
+    for entry in reversed(entries):
+        target = output / entry.name
+        if entry.backup and (output / entry.backup).exists():
+            os.replace(output / entry.backup, target)
+        elif not entry.backup and same_bytes(target, entry.sha256):
+            target.unlink()
+
+
+def publish_all(files: Sequence[Staged], output: Path, backups: Path, *, force: bool) -> list[Path]:
+    """Move the staged files into `output` together: all of them, or none.
+
+    A file already holding the same bytes is left as it is. Without `force`, any other
+    existing file stops the publication before anything moves (`OutputExistsError`); with
+    it, the file replaced is first moved into `backups` (a folder inside `output`). A
+    journal is written before the first move and removed after the last; a failure or an
+    interruption in between puts every file back as it was and raises again. The paths
+    of the files in place are returned.
+    """
+    moving: list[tuple[Staged, _Entry]] = []
+    for number, file in enumerate(files):
+        target = output / file.name
+        if same_bytes(target, file.sha256):
+            continue
+        backup = ""
+        if target.exists() or target.is_symlink():
+            if not force:
+                raise OutputExistsError(target)
+            backup = (backups / f"replaced-{number:06d}").relative_to(output).as_posix()
+        moving.append((file, _Entry(file.name, file.sha256, backup)))
+    if any(entry.backup for _, entry in moving):
+        backups.mkdir(parents=True, exist_ok=True)
+    journal = {"pid": os.getpid(), "files": [entry.__dict__ for _, entry in moving]}
+    try:
+        write_new(output / JOURNAL, json.dumps(journal).encode("utf-8"))
+    except FileExistsError:
+        raise PathError(
+            output, "cannot be written", "another audit is publishing into it"
+        ) from None
+    started: list[_Entry] = []
+    try:
+        for file, entry in moving:
+            started.append(entry)
+            _place(file, output, entry)
+    except BaseException:
+        _roll_back(output, started)  # the step under way too: its backup may have moved
+        (output / JOURNAL).unlink(missing_ok=True)
+        raise
+    (output / JOURNAL).unlink()
+    return [output / file.name for file in files]
+
+
+def _place(file: Staged, output: Path, entry: _Entry) -> None:
+    """One step of `publish_all`: the replaced file to its backup, the staged file in place."""
+    target = output / entry.name
+    if entry.backup:
+        os.replace(target, output / entry.backup)
+    move(file.source, target, force=False)
 
 
 # --------------------------------------------------------------------------- writing
@@ -178,7 +349,10 @@ def _number(value: float | None) -> str:
 
 
 def register_csv(report: AuditReport) -> bytes:
-    """The register as CSV (UTF-8, header row, one row per room file)."""
+    """The register as CSV (UTF-8, header row, one row per room file).
+
+    Every cell is `neutralised`: none starts as a spreadsheet formula would.
+    """
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\r\n")
     writer.writerow(CSV_COLUMNS)
@@ -215,8 +389,8 @@ def register_csv(report: AuditReport) -> bytes:
         }
         for severity in SEVERITIES:
             cells[severity] = str(row.count(severity)) if row.assessed else ""
-        writer.writerow([cells[column] for column in CSV_COLUMNS])
-    return buffer.getvalue().encode("utf-8")
+        writer.writerow([neutralised(cells[column]) for column in CSV_COLUMNS])
+    return buffer.getvalue().encode("utf-8", "replace")  # a lone surrogate becomes "?"
 
 
 def register_record(report: AuditReport) -> dict[str, Any]:
@@ -285,9 +459,8 @@ def register_record(report: AuditReport) -> dict[str, Any]:
 
 
 def register_json(report: AuditReport) -> bytes:
-    return (json.dumps(register_record(report), indent=2, ensure_ascii=False) + "\n").encode(
-        "utf-8"
-    )
+    text = json.dumps(register_record(report), indent=2, ensure_ascii=False) + "\n"
+    return text.encode("utf-8", "replace")  # a lone surrogate becomes "?"
 
 
 # --------------------------------------------------------------------------- reading
@@ -371,7 +544,8 @@ def _rows_from_csv(text: str) -> tuple[list[RegisterRow], str, str]:
     if not reader.fieldnames or not {"file", "status"} <= set(reader.fieldnames):
         raise ValueError("no 'file' and 'status' columns")
     rows, version, digest = [], "", ""
-    for cells in reader:
+    for written in reader:
+        cells = {key: restored(value or "") for key, value in written.items() if key is not None}
         findings = []
         for line in _split(cells.get("findings"), "\n"):
             rule, severity, subject = [*line.split(_FINDING_SEPARATOR.strip(), 2), "", ""][:3]

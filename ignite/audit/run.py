@@ -9,10 +9,13 @@ Nothing is lost and nothing is half-written:
 
 - a room file that is invalid, unreadable or that trips an internal error becomes a
   register row with its problems; the other rooms carry on;
-- the worksheets are rendered into a hidden staging folder inside the output folder and
-  moved into place (`os.replace`, same file system) only when every room has run; the
-  register and the summary are written after them, each through a temporary file
-  (`ignite.audit.io`);
+- the worksheets, the register and the summary are rendered into a hidden staging folder
+  inside the output folder and moved into place together only when every room has run
+  (`ignite.audit.io.publish_all`: a journal, then renames on the same file system, every
+  file put back as it was on any failure); Ctrl-C and SIGTERM are held for the few
+  milliseconds the moves take, so an interrupted audit has published all or nothing;
+- a publication whose process was killed midway (SIGKILL, power cut) is undone by the
+  next run into the same folder, which then needs no `force`;
 - an earlier audit in the output folder (its register or summary) is never replaced
   unless `force` is given, and neither is any other file, except one holding exactly
   the bytes that would be written (the build is deterministic, so re-running an
@@ -28,10 +31,12 @@ import os
 import shutil
 import signal
 import tempfile
+import threading
 import time
-from collections.abc import Callable, Iterable, Sequence
+from collections.abc import Callable, Iterable, Iterator, Sequence
 from concurrent.futures import ProcessPoolExecutor, as_completed
-from dataclasses import dataclass
+from contextlib import contextmanager
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any
 
@@ -41,16 +46,17 @@ from ignite.audit.io import (
     REGISTER_CSV,
     REGISTER_JSON,
     SUMMARY_PDF,
+    Staged,
     existing_audit_files,
-    move,
-    publish,
+    publish_all,
+    recover,
     register_csv,
     register_json,
     same_bytes,
     sha256_hex,
     write_new,
 )
-from ignite.errors import InputError, OutputExistsError
+from ignite.errors import InputError, OutputExistsError, PathError, unreadable
 from ignite.records.register import (
     ASSESSED,
     ERROR,
@@ -85,6 +91,19 @@ class RoomRun:
     worksheet_name: str = ""
     worksheet_sha256: str = ""
     seconds: float = 0.0
+
+
+class AuditInterrupted(KeyboardInterrupt):
+    """The audit was stopped by Ctrl-C or SIGTERM (`cause`); `published` says what is there.
+
+    `published` is empty when the output folder holds nothing of this run (it is as it
+    was before), else the paths of every file of the audit, all in place.
+    """
+
+    def __init__(self, cause: KeyboardInterrupt, published: Sequence[Path]) -> None:
+        super().__init__()
+        self.cause = cause
+        self.published = tuple(published)
 
 
 @dataclass(frozen=True)
@@ -156,6 +175,15 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
     """
     start = time.perf_counter()
 
+    reason = unreadable(path)  # only regular files are read: a named pipe would block
+    if reason is not None:
+        return RoomRun(
+            index,
+            file,
+            INVALID,
+            problems=(f"{file}: cannot be read: {reason}",),
+            seconds=time.perf_counter() - start,
+        )
     try:
         data = Path(path).read_bytes()
     except OSError as exc:
@@ -270,21 +298,69 @@ def run_audit(
         earlier = existing_audit_files(output)
         if earlier:
             raise OutputExistsError(earlier[0])
-    output.mkdir(parents=True, exist_ok=True)
-    _clear_stale_staging(output)
-    staging = Path(tempfile.mkdtemp(prefix=f"{STAGING_PREFIX}{os.getpid()}-", dir=output))
+    try:
+        output.mkdir(parents=True, exist_ok=True)
+        recover(output)  # a publication killed midway: put the folder back as it was
+        _clear_stale_staging(output)
+        staging = Path(tempfile.mkdtemp(prefix=f"{STAGING_PREFIX}{os.getpid()}-", dir=output))
+    except OSError as exc:
+        raise PathError.unwritable(output, exc) from None
+    published: list[Path] = []
     try:
         runs = _run_all(rooms, folder, staging, book, rules_dir, jobs, paper, progress)
         names = _worksheet_names(runs)
-        _check_targets(runs, names, output, force)
-        worksheets = _put_in_place(runs, names, output, force)
         report = build_report(folder, runs, names, book, previous, paper)
-        written = write_outputs(report, output, force=force)
+        files = _stage_outputs(runs, names, report, staging)
+        if not force:  # refuse before anything moves
+            publish_check(files, output)
+        with _signals_held():
+            try:
+                published = publish_all(files, output, staging / "replaced", force=force)
+            except OSError as exc:
+                raise PathError.unwritable(Path(exc.filename or output), exc) from None
+    except KeyboardInterrupt as exc:
+        raise AuditInterrupted(exc, published) from None
     finally:
         shutil.rmtree(staging, ignore_errors=True)
+    worksheets = [output / names[run.index] for run in runs if run.index in names]
+    written = [output / name for name in (REGISTER_CSV, REGISTER_JSON, SUMMARY_PDF)]
     return AuditOutcome(
         report, tuple(runs), tuple(written), tuple(worksheets), time.perf_counter() - start
     )
+
+
+def publish_check(files: Sequence[Staged], output: Path) -> None:
+    """`OutputExistsError` for the first file whose name is taken by other bytes."""
+    for file in files:
+        target = output / file.name
+        if (target.exists() or target.is_symlink()) and not same_bytes(target, file.sha256):
+            raise OutputExistsError(target)
+
+
+@contextmanager
+def _signals_held() -> Iterator[None]:
+    """Hold Ctrl-C and SIGTERM while the files move into place; deliver them after.
+
+    The moves take milliseconds; an interruption then takes effect with the audit's
+    output wholly in place (or wholly rolled back), never half of it.
+    """
+    if threading.current_thread() is not threading.main_thread():
+        yield
+        return
+    caught: list[int] = []
+
+    def hold(signum: int, frame: object) -> None:
+        caught.append(signum)
+
+    wanted = (signal.SIGINT, signal.SIGTERM)
+    previous = {number: signal.signal(number, hold) for number in wanted}
+    try:
+        yield
+    finally:
+        for number, handler in previous.items():
+            signal.signal(number, handler)
+        if caught:
+            signal.raise_signal(caught[0])
 
 
 def _run_all(
@@ -364,32 +440,25 @@ def _worksheet_names(runs: Sequence[RoomRun]) -> dict[int, str]:
     return names
 
 
-def _check_targets(
-    runs: Sequence[RoomRun], names: dict[int, str], output: Path, force: bool
-) -> None:
-    if force:
-        return
-    for run in runs:
-        if run.index in names:
-            target = output / names[run.index]
-            if target.exists() and not same_bytes(target, run.worksheet_sha256):
-                raise OutputExistsError(target)
-
-
-def _put_in_place(
-    runs: Sequence[RoomRun], names: dict[int, str], output: Path, force: bool
-) -> list[Path]:
-    placed = []
-    for run in runs:
-        if run.index not in names:
-            continue
-        target = output / names[run.index]
-        if not force and same_bytes(target, run.worksheet_sha256):
-            Path(run.staged).unlink()
-        else:
-            move(Path(run.staged), target, force=force)
-        placed.append(target)
-    return placed
+def _stage_outputs(
+    runs: Sequence[RoomRun], names: dict[int, str], report: AuditReport, staging: Path
+) -> list[Staged]:
+    """The worksheets (already staged), then the register and the summary, rendered into
+    the staging folder: everything the audit publishes, in the order it is moved."""
+    files = [
+        Staged(Path(run.staged), names[run.index], run.worksheet_sha256)
+        for run in runs
+        if run.index in names
+    ]
+    for name, render in (
+        (REGISTER_CSV, register_csv),
+        (REGISTER_JSON, register_json),
+        (SUMMARY_PDF, render_summary),
+    ):
+        data = render(report)
+        write_new(staging / name, data)
+        files.append(Staged(staging / name, name, sha256_hex(data)))
+    return files
 
 
 # --------------------------------------------------------------------------- register
@@ -441,6 +510,7 @@ def build_report(
             s.finding.subject,
         )
     )
+    rows = _warn_duplicate_ids(rows)
     changes = compare(previous.rows, rows) if previous is not None else ()
     return AuditReport(
         str(folder),
@@ -454,15 +524,21 @@ def build_report(
     )
 
 
-def write_outputs(report: AuditReport, output: Path, *, force: bool) -> list[Path]:
-    """Register CSV, register JSON, then the summary PDF; each whole or not at all."""
-    written = []
-    for name, data in (
-        (REGISTER_CSV, register_csv(report)),
-        (REGISTER_JSON, register_json(report)),
-    ):
-        publish(output / name, data, force=force)
-        written.append(output / name)
-    publish(output / SUMMARY_PDF, render_summary(report), force=force)
-    written.append(output / SUMMARY_PDF)
-    return written
+def _warn_duplicate_ids(rows: Sequence[RegisterRow]) -> list[RegisterRow]:
+    """Rows whose room id another room file also gives (ignoring case) carry a warning."""
+    files: dict[str, list[str]] = {}
+    for row in rows:
+        if row.room_id:
+            files.setdefault(row.room_id.casefold(), []).append(row.file)
+    marked = []
+    for row in rows:
+        sharing = files.get(row.room_id.casefold(), []) if row.room_id else []
+        if len(sharing) > 1:
+            others = ", ".join(file for file in sharing if file != row.file)
+            warning = (
+                f"room id {row.room_id} is given by {len(sharing)} room files (also {others}); "
+                "the register and a later comparison cannot tell these rooms apart by id"
+            )
+            row = replace(row, warnings=(*row.warnings, warning))
+        marked.append(row)
+    return marked

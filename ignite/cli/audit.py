@@ -14,13 +14,14 @@ from typing import TYPE_CHECKING, NoReturn
 
 import click
 
+from ignite.records.register import ERROR
 from ignite.records.results import SEVERITIES
 from ignite.wording.sentences import CLI_CAUTION
 
 if TYPE_CHECKING:
     from ignite.audit.run import AuditOutcome, RoomRun
 
-EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID = 0, 1, 2, 3
+EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE, EXIT_INVALID, EXIT_INTERNAL = 0, 1, 2, 3, 4
 EXIT_INTERRUPTED, EXIT_TERMINATED = 130, 143  # 128 + SIGINT, 128 + SIGTERM
 LEVELS = (*SEVERITIES, "never")
 CAUTION = CLI_CAUTION
@@ -40,9 +41,10 @@ and folders (name starting with ".") are skipped. OUTDIR receives:
 Nothing is overwritten: if OUTDIR already holds an audit (its register or summary),
 or a worksheet name is taken by a different file, the audit refuses with exit code 2
 and writes nothing; --force replaces those files (other files in OUTDIR are left as
-they are). Worksheets are rendered into a hidden staging folder and moved into place
-when every room has run; the register and summary are written last, each whole or not
-at all. An interrupted audit can simply be run again.
+they are). The worksheets, the register and the summary are rendered into a hidden
+staging folder and moved into place together when every room has run: all of them or
+none. An interrupted audit says what it left and can simply be run again, without
+--force (a run killed while moving its files is undone by the next one).
 
 \b
 A room file that is invalid or cannot be assessed never stops the others; the
@@ -51,8 +53,9 @@ register lists it with its problems.
 
 EPILOG = (
     "Exit codes: 0 clean; 1 a finding at or above --fail-on; 2 usage, or OUTDIR holds "
-    "an earlier audit and --force was not given; 3 a room file (or rule file) invalid or "
-    "not assessed; 130 interrupted (143 on SIGTERM). " + CAUTION
+    "an earlier audit and --force was not given, or a path cannot be read or written; 3 a "
+    "room file (or rule file) invalid or not assessed; 4 an internal error on a room (or "
+    "anywhere); 130 interrupted (143 on SIGTERM). " + CAUTION
 )
 
 
@@ -123,7 +126,7 @@ def _room_line(run: RoomRun, done: int, total: int) -> str:
 @click.option(
     "--rules",
     "rules_dir",
-    type=click.Path(file_okay=False, path_type=Path),
+    type=click.Path(exists=True, file_okay=False, path_type=Path),
     default=None,
     help="Folder of rule files to use instead of the packaged rules/.",
 )
@@ -145,6 +148,36 @@ def audit(
     paper: str,
 ) -> None:
     # lazy, for start-up time: every ignite command loads this module, few run an audit
+    from ignite.audit.run import AuditInterrupted
+
+    # Ctrl-C or SIGTERM at any moment ends in one message saying what OUTDIR holds.
+    old_handler = signal.signal(signal.SIGTERM, _terminate)
+    done: list[AuditOutcome] = []
+    try:
+        done.append(_audit(folder, output, previous, jobs, rules_dir, force, paper))
+        code = _report(done[0], fail_on)
+    except KeyboardInterrupt as exc:
+        cause = exc.cause if isinstance(exc, AuditInterrupted) else exc
+        if isinstance(exc, AuditInterrupted):
+            published = exc.published
+        else:
+            published = (*done[0].worksheets, *done[0].written) if done else ()
+        _say(_interrupted(output, published, force))
+        _exit(EXIT_TERMINATED if isinstance(cause, _Terminated) else EXIT_INTERRUPTED)
+    finally:
+        signal.signal(signal.SIGTERM, old_handler)
+    _exit(code)
+
+
+def _audit(
+    folder: Path,
+    output: Path,
+    previous: Path | None,
+    jobs: int | None,
+    rules_dir: Path | None,
+    force: bool,
+    paper: str,
+) -> AuditOutcome:
     from ignite.audit.io import RegisterError, existing_audit_files, read_register
     from ignite.audit.run import discover_rooms, run_audit
     from ignite.errors import OutputExistsError, RuleFileError
@@ -180,33 +213,46 @@ def audit(
         else:
             bar.update(1)
 
-    old_handler = signal.signal(signal.SIGTERM, _terminate)
+    if bar is not None:
+        bar.__enter__()
     try:
-        if bar is not None:
-            bar.__enter__()
-        try:
-            outcome = run_audit(
-                folder,
-                output,
-                book,
-                rules_dir=rules_dir,
-                previous=register,
-                jobs=jobs,
-                paper=paper,
-                force=force,
-                progress=progress,
-            )
-        finally:
-            if bar is not None:
-                bar.__exit__(None, None, None)
+        return run_audit(
+            folder,
+            output,
+            book,
+            rules_dir=rules_dir,
+            previous=register,
+            jobs=jobs,
+            paper=paper,
+            force=force,
+            progress=progress,
+        )
     except OutputExistsError as exc:
         _refuse(output, [exc.path.name], exc.exit_code)
-    except KeyboardInterrupt as exc:
-        _say("ignite: audit interrupted; no register or summary written. Run it again to finish.")
-        _exit(EXIT_TERMINATED if isinstance(exc, _Terminated) else EXIT_INTERRUPTED)
     finally:
-        signal.signal(signal.SIGTERM, old_handler)
-    _exit(_report(outcome, fail_on))
+        if bar is not None:
+            bar.__exit__(None, None, None)
+
+
+def _interrupted(output: Path, published: tuple[Path, ...], force: bool) -> str:
+    """What an interrupted audit left in OUTDIR, exactly."""
+    if published:
+        return (
+            f"ignite: audit interrupted after its output was in place: {output} holds the "
+            f"register, the summary and {len(published) - 3} worksheet(s), complete."
+        )
+    from ignite.audit.io import existing_audit_files
+
+    if force:
+        again = "with --force, as before"
+    elif existing_audit_files(output):  # stopped before the check that would have refused
+        again = "it holds an earlier audit, so --force is needed to replace it"
+    else:
+        again = "--force is not needed"
+    return (
+        f"ignite: audit interrupted before its output was published: nothing of this run is "
+        f"in {output} (it is as it was). Run it again to finish; {again}."
+    )
 
 
 def _refuse(output: Path, names: list[str], code: int) -> NoReturn:
@@ -224,10 +270,9 @@ def _report(outcome: AuditOutcome, fail_on: str) -> int:
         _say(f"ignite: {row.file}: {row.status}:")
         for problem in row.problems:
             _say(f"  {problem}")
-    for run in outcome.runs:
-        if run.results is not None:
-            for warning in run.results.warnings:
-                _say(f"warning: {run.file}: {warning}")
+    for row in report.rows:
+        for warning in row.warnings:
+            _say(f"warning: {row.file}: {warning}")
     for path in (*outcome.written,):
         click.echo(str(path))
     assessed = len(report.rows) - len(not_assessed)
@@ -238,6 +283,8 @@ def _report(outcome: AuditOutcome, fail_on: str) -> int:
         f"{outcome.seconds:.1f} s."
     )
     _say(CAUTION)
+    if any(row.status == ERROR for row in not_assessed):
+        return EXIT_INTERNAL
     if not_assessed:
         return EXIT_INVALID
     reached = fail_on != "never" and any(

@@ -1,11 +1,17 @@
 """The `ignite` command line: thin click commands; each error carries its own exit code.
 
-Exit codes: 0 ran clean, 1 a finding at or above --fail-on, 2 usage (or an output
-file exists without --force), 3 an invalid room or rule file.
+Exit codes: 0 ran clean, 1 a finding at or above --fail-on, 2 usage (a path that
+cannot be read or written, or an output file exists without --force), 3 an invalid room
+or rule file, 4 an internal error (a defect of ignite), 130 interrupted.
+
+Output goes out as UTF-8; a character that cannot be encoded (a lone surrogate from a
+YAML escape) is replaced, never a crash.
 """
 
 from __future__ import annotations
 
+import contextlib
+import io
 import json
 import os
 import sys
@@ -17,7 +23,15 @@ import click
 
 from ignite import __version__
 from ignite.cli.audit import audit
-from ignite.errors import EXIT_INVALID, IgniteError, InputError, OutputExistsError
+from ignite.errors import (
+    EXIT_INTERNAL,
+    EXIT_USAGE,
+    IgniteError,
+    InputError,
+    OutputExistsError,
+    PathError,
+    unreadable,
+)
 from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
 from ignite.records.results import SEVERITIES, Results
 from ignite.report.text import render_text
@@ -26,13 +40,14 @@ from ignite.rules.rulebook import Rulebook
 from ignite.wording.sentences import CLI_CAUTION
 
 EXIT_CLEAN, EXIT_FINDINGS = 0, 1
+EXIT_INTERRUPTED = 130  # 128 + SIGINT
 LEVELS = (*SEVERITIES, "never")
 CAUTION = CLI_CAUTION
 
 rules_option = click.option(
     "--rules",
     "rules_dir",
-    type=click.Path(file_okay=False, path_type=Path),
+    type=click.Path(exists=True, file_okay=False, path_type=Path),
     default=None,
     help="Folder of rule files to use instead of the packaged rules/.",
 )
@@ -71,6 +86,21 @@ def _internal_error(path: Path, exc: Exception) -> None:
     )
 
 
+def _utf8_streams() -> None:
+    """stdout and stderr write UTF-8 and replace what cannot be encoded, never raise."""
+    for stream in (sys.stdout, sys.stderr):
+        if isinstance(stream, io.TextIOWrapper):
+            stream.reconfigure(encoding="utf-8", errors="replace")
+
+
+def _readable(path: Path) -> Path:
+    """`path`, if it is a regular file that can be read; else a `PathError` (exit 2)."""
+    reason = unreadable(path)
+    if reason is not None:
+        raise PathError(path, "cannot be read", reason)
+    return path
+
+
 def _reaches(severity: str, fail_on: str) -> bool:
     return fail_on != "never" and LEVELS.index(severity) <= LEVELS.index(fail_on)
 
@@ -88,8 +118,9 @@ def _each_room(rooms: Iterable[Path], action: Callable[[Path], int], not_done: s
 
     `action(path)` does one room's work and returns its exit code (0 or 1). A room that
     fails is reported on stderr, with `not_done` saying what did not happen, and never
-    stops the others. The combined code is the most serious of all rooms': 3 invalid or
-    not assessed > 2 an output exists > 1 a finding reached --fail-on > 0 clean.
+    stops the others. The combined code is the most serious of all rooms': 4 internal
+    error > 3 invalid > 2 a path that cannot be read or written, or an output exists > 1 a
+    finding reached --fail-on > 0 clean.
     """
     code = EXIT_CLEAN
     for path in rooms:
@@ -102,23 +133,60 @@ def _each_room(rooms: Iterable[Path], action: Callable[[Path], int], not_done: s
         except IgniteError as exc:
             _say(f"ignite: {exc}")
             room_code = exc.exit_code
+        except OSError as exc:
+            _say(f"ignite: {PathError.from_os_error(exc, 'cannot be read or written', path)}")
+            room_code = EXIT_USAGE
         except Exception as exc:
             _internal_error(path, exc)
-            room_code = EXIT_INVALID
+            room_code = EXIT_INTERNAL
         code = max(code, room_code)
     return code
 
 
+class _Commands(click.Group):
+    """The command group: whatever escapes a command ends in one line and its exit code."""
+
+    def invoke(self, ctx: click.Context) -> Any:
+        _utf8_streams()
+        try:
+            return super().invoke(ctx)
+        except (click.exceptions.ClickException, click.exceptions.Exit, click.Abort):
+            raise
+        except IgniteError as exc:
+            _say(f"ignite: {exc}")
+            _exit(exc.exit_code)
+        except OSError as exc:
+            _say(f"ignite: {PathError.from_os_error(exc, 'cannot be read or written')}")
+            _exit(EXIT_USAGE)
+        except KeyboardInterrupt:
+            _say("ignite: interrupted")
+            _exit(EXIT_INTERRUPTED)
+        except Exception as exc:
+            if os.environ.get("IGNITE_DEBUG"):
+                raise
+            _say(
+                f"ignite: internal error {type(exc).__name__}: {exc} "
+                "(please report it; IGNITE_DEBUG=1 shows the details)"
+            )
+            _exit(EXIT_INTERNAL)
+
+
 @click.group(
+    cls=_Commands,
     help=f"Fire and static-ignition sums for operating theatres, from a YAML room file.\n\n{CAUTION}",
-    epilog="Exit codes: 0 clean, 1 findings at or above --fail-on, 2 usage, 3 invalid room or rule file.",
+    epilog="Exit codes: 0 clean, 1 findings at or above --fail-on, 2 usage (or a path that "
+    "cannot be read or written), 3 invalid room or rule file, 4 internal error, 130 interrupted.",
 )
 @click.version_option(__version__, prog_name="ignite")
 def main() -> None:
     pass
 
 
-@main.command(help="Compute and print the results and findings of one or more rooms.")
+@main.command(
+    help="Compute and print the results and findings of one or more rooms.\n\n"
+    "With --format json, stdout is always one JSON array holding the result record of "
+    "each room assessed, in the order the files were given (one room: an array of one)."
+)
 @click.argument("rooms", nargs=-1, required=True, type=click.Path(path_type=Path))
 @click.option(
     "--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True
@@ -130,7 +198,7 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
     records: list[dict[str, Any]] = []
 
     def check_room(path: Path) -> int:
-        results = run_room(path, book)
+        results = run_room(_readable(path), book)
         code = _room_done(results, fail_on)
         if fmt == "json":
             record = results.to_record()
@@ -141,10 +209,8 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
         return code
 
     code = _each_room(rooms, check_room, "room not assessed")
-    if fmt == "json" and records:
-        click.echo(
-            json.dumps(records[0] if len(rooms) == 1 else records, indent=2, ensure_ascii=False)
-        )
+    if fmt == "json":
+        click.echo(json.dumps(records, indent=2, ensure_ascii=False))
     _exit(code)
 
 
@@ -153,9 +219,10 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
 @click.option(
     "-o",
     "--output",
-    type=click.Path(path_type=Path),
+    type=click.Path(),
     default=None,
-    help="PDF file (one room) or folder. Default: output/<room id>-<date>.pdf",
+    help="PDF file (one room; name ending .pdf) or folder (created if missing). "
+    "Default: output/<room id>-<date>.pdf",
 )
 @click.option("--force", is_flag=True, help="Replace an existing worksheet.")
 @click.option(
@@ -168,18 +235,19 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
 @rules_option
 def assess(
     rooms: tuple[Path, ...],
-    output: Path | None,
+    output: str | None,
     force: bool,
     paper: str,
     fail_on: str,
     rules_dir: Path | None,
 ) -> None:
+    target = _worksheet_target(output, len(rooms))
     book = _open_rules(rules_dir)
-    if output is not None and len(rooms) > 1 and output.suffix.lower() == ".pdf":
-        raise click.UsageError("with several rooms, -o names a folder, not a .pdf file")
 
     def assess_room(path: Path) -> int:
-        results, written = write_room_worksheet(path, book, output, force=force, paper=paper)
+        results, written = write_room_worksheet(
+            _readable(path), book, target, force=force, paper=paper
+        )
         code = _room_done(results, fail_on)
         worst = results.worst_severity() or "none"
         click.echo(f"{written}  ({len(results.findings)} findings, worst: {worst})")
@@ -188,6 +256,26 @@ def assess(
     code = _each_room(rooms, assess_room, "no worksheet written")
     _say(CAUTION)
     _exit(code)
+
+
+def _worksheet_target(output: str | None, rooms: int) -> Path | None:
+    """`assess -o`: a .pdf file (one room) or a folder; anything else is refused (exit 2).
+
+    A folder is a name without a suffix, an existing folder, or a name ending in "/".
+    """
+    if output is None:
+        return None
+    path = Path(output)
+    is_pdf = path.suffix.lower() == ".pdf"
+    if is_pdf and not path.is_dir():
+        if rooms > 1:
+            raise click.UsageError("with several rooms, -o names a folder, not a .pdf file")
+        return path
+    if path.suffix and not path.is_dir() and not output.endswith(("/", os.sep)):
+        raise click.UsageError(
+            f'-o {output}: a worksheet is a PDF; name the file *.pdf, or end a folder name with "/"'
+        )
+    return path
 
 
 @main.command(
@@ -230,10 +318,16 @@ def new(path: Path, force: bool) -> None:
         exists = OutputExistsError(path)
         _say(f"ignite: {exists}")
         _exit(exists.exit_code)
-    path.parent.mkdir(parents=True, exist_ok=True)
     temporary = path.with_name(f".{path.name}.tmp")
-    temporary.write_text(TEMPLATE, encoding="utf-8")
-    temporary.replace(path)
+    try:
+        path.parent.mkdir(parents=True, exist_ok=True)
+        temporary.write_text(TEMPLATE, encoding="utf-8")
+        temporary.replace(path)
+    except OSError as exc:
+        raise PathError.unwritable(path, exc) from None
+    finally:
+        with contextlib.suppress(OSError):
+            temporary.unlink(missing_ok=True)
     click.echo(str(path))
 
 
