@@ -151,3 +151,23 @@ def test_a_row_taller_than_a_page_is_split_not_refused(monkeypatch: pytest.Monke
     monkeypatch.setattr(pdf, "TALL_ROW", math.inf)
     with pytest.raises(LayoutError):
         render_worksheet(results, fx.RULES, fx.METHODS, fx.FULL_ROOM_FILE)
+
+
+def test_an_audit_of_a_room_at_the_limits_writes_its_summary(tmp_path: Path) -> None:
+    rooms = tmp_path / "rooms"
+    rooms.mkdir()
+    big_rooms.write_room(rooms / "big.yaml", spaces=False)  # hundreds of points outside
+    out = tmp_path / "out"
+    result = CliRunner().invoke(main, ["audit", str(rooms), "-o", str(out), "--jobs", "1"])
+    assert result.exit_code == 0, result.output
+    text = _text((out / "audit-summary.pdf").read_bytes())
+    assert "… and" in text  # the test points outside the window, cut with a mark
+    assert len(list(out.glob("*.pdf"))) == 2  # the worksheet and the summary
+
+
+def test_a_room_at_the_limits_gives_a_letter_worksheet(tmp_path: Path) -> None:
+    room = big_rooms.write_room(tmp_path / "big.yaml", people=100, spaces=False)
+    out = tmp_path / "big.pdf"
+    result = CliRunner().invoke(main, ["assess", str(room), "-o", str(out), "--paper", "letter"])
+    assert result.exit_code == 0, result.output
+    assert len(PdfReader(out).pages) > 10
