@@ -80,14 +80,39 @@ def main() -> None:
     )
     with_pdf.unlink(missing_ok=True)
 
+    # ------------------------------------------------------------------ long lists (issue 14)
+    # The 3-case sample room with N point-to-ground and N point-to-point readings, assessed
+    # cold; the readings' share should grow about linearly with N (the list limit is 1000).
+    import tempfile
+
+    import big_rooms
+    import yaml
+
+    with tempfile.TemporaryDirectory(prefix="ignite-bench-readings-") as scratch:
+        base = yaml.safe_load(SAMPLES.joinpath("day-surgery-head-neck.yaml").read_text())
+        figures = []
+        for count in (10, 100, 1000):
+            data = dict(base, floor=dict(base["floor"]))
+            data["floor"]["point_to_ground"] = big_rooms.readings(count, 1)
+            data["floor"]["point_to_point"] = big_rooms.readings(count, 2)
+            room = Path(scratch) / f"readings-{count}.yaml"
+            room.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
+            out = Path(scratch) / f"readings-{count}.pdf"
+            figures.append(
+                (count, timed([py, "-m", "ignite", "assess", str(room), "-o", str(out)], 1))
+            )
+            out.unlink(missing_ok=True)
+        for count, seconds in figures:
+            print(
+                f"ignite assess, {count:4d}+{count:<4d} readings     {seconds:6.2f} s  "
+                f"(+{seconds - figures[0][1]:.2f} s over 10)"
+            )
+
     # ------------------------------------------------------------------ audit (issue 6)
     # 100 generated rooms (the sample rooms in turn, each with its own id and its floor
     # readings scaled by 0.5 to 2), audited cold into a temporary folder with the default
     # --jobs (one process per CPU). Aim: 100 rooms in 15 s or less on a 2-core machine.
     import os
-    import tempfile
-
-    import yaml
 
     def scaled(reading: str, factor: float) -> str:
         number, _, unit = reading.strip().partition(" ")

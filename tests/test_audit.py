@@ -13,6 +13,7 @@ import copy
 import csv
 import hashlib
 import json
+import time
 from pathlib import Path
 from typing import Any
 
@@ -674,3 +675,67 @@ def test_an_interruption_after_publication_says_the_output_is_complete(
     assert "interrupted after its output was in place" in result.stderr
     assert "3 worksheet(s), complete" in result.stderr
     assert snapshot(out) == complete
+
+
+# --------------------------------------------------------------------------- time limit
+
+
+def _slow_room(monkeypatch: pytest.MonkeyPatch, name: str, seconds: float) -> None:
+    """A stand-in for a room whose solve runs on: `name` sleeps before it is evaluated.
+
+    With the fork start method the pool's workers inherit the stand-in too."""
+    import ignite.pipeline
+
+    real = ignite.pipeline.evaluate_room
+
+    def slow(path: Path, book: Any) -> Any:
+        if path.name == name:
+            time.sleep(seconds)
+        return real(path, book)
+
+    monkeypatch.setattr(ignite.pipeline, "evaluate_room", slow)
+
+
+@pytest.mark.parametrize("jobs", ["1", "2"])
+def test_a_room_past_its_time_limit_is_not_assessed_and_the_rest_carry_on(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch, jobs: str
+) -> None:
+    import multiprocessing
+
+    if jobs != "1" and multiprocessing.get_start_method() != "fork":
+        pytest.skip("the stand-in reaches the workers only when they are forked")
+    _slow_room(monkeypatch, "t1.yaml", 60.0)
+    out = tmp_path / "out"
+    start = time.perf_counter()
+    result = audit(site, "-o", out, "--jobs", jobs, "--room-timeout", "1.5")
+    elapsed = time.perf_counter() - start
+    assert elapsed < 40  # the slow room was stopped, not waited for
+    assert result.exit_code == 4  # a room not assessed for an internal reason: an error
+    rows = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}
+    assert rows["t1.yaml"]["status"] == "error"
+    assert "time limit of 1.5 s" in rows["t1.yaml"]["problems"]
+    assert rows["t1.yaml"]["worksheet"] == ""
+    assert rows["east/t2.yml"]["status"] == "assessed"
+    assert rows["east/t3.yaml"]["status"] == "assessed"
+    for row in rows.values():
+        if row["worksheet"]:
+            assert (out / row["worksheet"]).exists()
+    assert not list(out.glob(".ignite-audit-staging-*"))
+
+
+def test_rooms_within_the_time_limit_are_unaffected(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    _slow_room(monkeypatch, "t1.yaml", 0.2)
+    out = tmp_path / "out"
+    result = audit(site, "-o", out, "--jobs", "1", "--room-timeout", "30")
+    assert result.exit_code == 3  # only the broken room
+    rows = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}
+    assert rows["t1.yaml"]["status"] == "assessed"
+
+
+def test_the_time_limit_must_be_positive(site: Path, tmp_path: Path) -> None:
+    result = CliRunner().invoke(
+        main, ["audit", str(site), "-o", str(tmp_path / "o"), "--room-timeout", "0"]
+    )
+    assert result.exit_code == 2

@@ -33,8 +33,9 @@ import signal
 import tempfile
 import threading
 import time
+from collections import deque
 from collections.abc import Callable, Iterable, Iterator, Sequence
-from concurrent.futures import ProcessPoolExecutor, as_completed
+from concurrent.futures import FIRST_COMPLETED, Future, ProcessPoolExecutor, wait
 from contextlib import contextmanager
 from dataclasses import dataclass, replace
 from pathlib import Path
@@ -75,6 +76,9 @@ from ignite.simulate.compute import METHODS
 
 ROOM_SUFFIXES = (".yaml", ".yml")
 STAGING_PREFIX = ".ignite-audit-staging-"
+ROOM_TIMEOUT = 120.0
+"""Default time limit of one room [s]: a sample room takes a few seconds, a room at every
+list limit under half a minute; a room still running after this is listed as not assessed."""
 
 
 @dataclass(frozen=True)
@@ -91,6 +95,26 @@ class RoomRun:
     worksheet_name: str = ""
     worksheet_sha256: str = ""
     seconds: float = 0.0
+
+
+class _RoomTimeout(BaseException):
+    """Raised by the alarm in this process when a room runs past its time limit.
+
+    A BaseException, so that no `except Exception` on the way (the room's own error
+    handling included) mistakes it for the room's failure."""
+
+
+def _timed_out(index: int, file: str, limit: float) -> RoomRun:
+    return RoomRun(
+        index,
+        file,
+        ERROR,
+        problems=(
+            f"{file}: not assessed: still running after the time limit of {limit:g} s "
+            "(--room-timeout); the other rooms went on",
+        ),
+        seconds=limit,
+    )
 
 
 class AuditInterrupted(KeyboardInterrupt):
@@ -146,8 +170,10 @@ _WORKER: dict[str, Any] = {}
 
 
 def _start_worker(rules_dir: str | None, digest: str) -> None:
-    """Worker initialiser: load the rules once; leave Ctrl-C to the parent."""
+    """Worker initialiser: load the rules once; leave Ctrl-C to the parent; end quietly
+    on SIGTERM (the parent stops its workers so when a room runs past its time limit)."""
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
     try:
         _prepare(_open_book(rules_dir), digest)
     except Exception as exc:  # reported on every room, never lost in a broken pool
@@ -282,12 +308,14 @@ def run_audit(
     paper: str = "a4",
     force: bool = False,
     progress: Progress | None = None,
+    room_timeout: float | None = ROOM_TIMEOUT,
 ) -> AuditOutcome:
     """Audit every room file under `folder` into `output`.
 
     `book` is the rulebook already opened (and validated) from `rules_dir`; workers open
     the same folder once each and check they got the same digest. `jobs` worker processes
-    (default `os.cpu_count()`; 1 runs in this process). Raises `OutputExistsError` (before
+    (default `os.cpu_count()`; 1 runs in this process). A room still running after
+    `room_timeout` seconds (None: no limit) is stopped and listed as an error. Raises `OutputExistsError` (before
     any work) when `output` holds an earlier audit and `force` is not given, and (before
     anything is written) when a worksheet name is taken by a different file.
     """
@@ -307,7 +335,9 @@ def run_audit(
         raise PathError.unwritable(output, exc) from None
     published: list[Path] = []
     try:
-        runs = _run_all(rooms, folder, staging, book, rules_dir, jobs, paper, progress)
+        runs = _run_all(
+            rooms, folder, staging, book, rules_dir, jobs, paper, progress, room_timeout
+        )
         names = _worksheet_names(runs)
         report = build_report(folder, runs, names, book, previous, paper)
         files = _stage_outputs(runs, names, report, staging)
@@ -372,6 +402,7 @@ def _run_all(
     jobs: int | None,
     paper: str,
     progress: Progress | None,
+    room_timeout: float | None = None,
 ) -> list[RoomRun]:
     tasks = [
         (index, str(path), path.relative_to(folder).as_posix(), str(staging), paper)
@@ -389,37 +420,121 @@ def _run_all(
         _prepare(book, book.digest)
         try:
             for task in tasks:
-                done(assess_room(*task))
+                done(_assess_here(task, room_timeout))
         finally:
             _WORKER.clear()
     else:
-        pool = ProcessPoolExecutor(
-            max_workers=workers,
-            initializer=_start_worker,
-            initargs=(str(rules_dir) if rules_dir else None, book.digest),
-        )
-        try:
-            futures = {pool.submit(assess_room, *task): task for task in tasks}
-            for future in as_completed(futures):
-                try:
-                    run = future.result()
-                except Exception as exc:  # a worker died (killed, out of memory, ...)
-                    index, _, file, _, _ = futures[future]
-                    run = RoomRun(
-                        index,
-                        file,
-                        ERROR,
-                        problems=(
-                            f"{file}: not assessed: the worker process stopped "
-                            f"({type(exc).__name__}: {exc}); run the audit again",
-                        ),
-                    )
-                done(run)
-        except BaseException:
-            pool.shutdown(wait=True, cancel_futures=True)
-            raise
-        pool.shutdown(wait=True)
+        initargs = (str(rules_dir) if rules_dir else None, book.digest)
+        queue: deque[Task] = deque(tasks)
+        while queue:  # a fresh pool after each room stopped for its time limit
+            _run_pool(queue, workers, initargs, room_timeout, done)
     return sorted(runs, key=lambda run: run.index)
+
+
+Task = tuple[int, str, str, str, str]  # the arguments of assess_room
+
+
+def _assess_here(task: Task, limit: float | None) -> RoomRun:
+    """One room in this process, stopped by an alarm after `limit` seconds where the
+    platform has one (SIGALRM) and this is the main thread; else without a limit."""
+    usable = (
+        limit is not None
+        and hasattr(signal, "setitimer")
+        and threading.current_thread() is threading.main_thread()
+    )
+    if not usable or limit is None:
+        return assess_room(*task)
+
+    def alarm(signum: int, frame: object) -> None:
+        raise _RoomTimeout
+
+    previous = signal.signal(signal.SIGALRM, alarm)
+    try:
+        signal.setitimer(signal.ITIMER_REAL, limit)
+        try:
+            return assess_room(*task)
+        finally:
+            signal.setitimer(signal.ITIMER_REAL, 0)
+    except _RoomTimeout:
+        return _timed_out(task[0], task[2], limit)
+    finally:
+        signal.signal(signal.SIGALRM, previous)
+
+
+def _run_pool(
+    queue: deque[Task],
+    workers: int,
+    initargs: tuple[str | None, str],
+    limit: float | None,
+    done: Callable[[RoomRun], None],
+) -> None:
+    """Run rooms from `queue` in one pool, at most one a worker at a time, so that each
+    room's clock starts when it does. When a room passes `limit`, it is listed as timed
+    out, the pool's processes are stopped (nothing says which one runs which room), the
+    rooms still running go back to the front of the queue, and this returns."""
+    pool = ProcessPoolExecutor(
+        max_workers=min(workers, len(queue)), initializer=_start_worker, initargs=initargs
+    )
+    running: dict[Future[RoomRun], tuple[Task, float]] = {}
+    try:
+        while queue or running:
+            while queue and len(running) < workers:
+                task = queue.popleft()
+                running[pool.submit(assess_room, *task)] = (task, time.monotonic())
+            wait_for = None
+            if limit is not None:
+                first = min(started for _, started in running.values())
+                wait_for = max(0.0, first + limit - time.monotonic())
+            finished, _ = wait(running, timeout=wait_for, return_when=FIRST_COMPLETED)
+            for future in finished:
+                task, _ = running.pop(future)
+                done(_outcome(future, task))
+            if limit is None:
+                continue
+            now = time.monotonic()
+            late = [f for f, (_, started) in running.items() if now - started >= limit]
+            if late:
+                for future in late:
+                    task, _ = running.pop(future)
+                    done(_timed_out(task[0], task[2], limit))
+                queue.extendleft(reversed([task for task, _ in running.values()]))
+                running.clear()
+                _stop(pool)
+                return
+    except BaseException:
+        _stop(pool)
+        raise
+    pool.shutdown(wait=True)
+
+
+def _outcome(future: Future[RoomRun], task: Task) -> RoomRun:
+    try:
+        return future.result()
+    except Exception as exc:  # a worker died (killed, out of memory, ...)
+        index, _, file, _, _ = task
+        return RoomRun(
+            index,
+            file,
+            ERROR,
+            problems=(
+                f"{file}: not assessed: the worker process stopped "
+                f"({type(exc).__name__}: {exc}); run the audit again",
+            ),
+        )
+
+
+def _stop(pool: ProcessPoolExecutor) -> None:
+    """Stop the pool's worker processes (ours, by their ids) and the pool itself."""
+    processes = list((getattr(pool, "_processes", None) or {}).values())
+    for process in processes:
+        if process.is_alive():
+            process.terminate()
+    for process in processes:
+        process.join(5)
+        if process.is_alive():
+            process.kill()
+            process.join(5)
+    pool.shutdown(wait=True, cancel_futures=True)
 
 
 def _worksheet_names(runs: Sequence[RoomRun]) -> dict[int, str]:

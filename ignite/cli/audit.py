@@ -132,6 +132,15 @@ def _room_line(run: RoomRun, done: int, total: int) -> str:
 )
 @click.option("--force", is_flag=True, help="Replace the files of an earlier audit in OUTDIR.")
 @click.option(
+    "--room-timeout",
+    metavar="SECONDS",
+    type=click.FloatRange(min=0, min_open=True),
+    default=120.0,
+    show_default=True,
+    help="Time limit of one room; a room still running after it is stopped and listed "
+    "as not assessed (an error), and the others go on.",
+)
+@click.option(
     "--paper",
     type=click.Choice(["a4", "letter"], case_sensitive=False),
     default="a4",
@@ -146,6 +155,7 @@ def audit(
     rules_dir: Path | None,
     force: bool,
     paper: str,
+    room_timeout: float,
 ) -> None:
     # lazy, for start-up time: every ignite command loads this module, few run an audit
     from ignite.audit.run import AuditInterrupted
@@ -154,7 +164,7 @@ def audit(
     old_handler = signal.signal(signal.SIGTERM, _terminate)
     done: list[AuditOutcome] = []
     try:
-        done.append(_audit(folder, output, previous, jobs, rules_dir, force, paper))
+        done.append(_audit(folder, output, previous, jobs, rules_dir, force, paper, room_timeout))
         code = _report(done[0], fail_on)
     except KeyboardInterrupt as exc:
         cause = exc.cause if isinstance(exc, AuditInterrupted) else exc
@@ -177,6 +187,7 @@ def _audit(
     rules_dir: Path | None,
     force: bool,
     paper: str,
+    room_timeout: float | None = None,
 ) -> AuditOutcome:
     from ignite.audit.io import RegisterError, existing_audit_files, read_register
     from ignite.audit.run import discover_rooms, run_audit
@@ -226,6 +237,7 @@ def _audit(
             paper=paper,
             force=force,
             progress=progress,
+            room_timeout=room_timeout,
         )
     except OutputExistsError as exc:
         _refuse(output, [exc.path.name], exc.exit_code)

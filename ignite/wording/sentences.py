@@ -415,6 +415,34 @@ def reading_outside(below: bool, limit: str) -> str:
     return f"outside: below {limit}" if below else f"outside: above {limit}"
 
 
+def readings_summarised(count: int, outside: int, listed: int) -> str:
+    """Under a long list of floor readings: what the worksheet shows of them instead."""
+    text = f"{count} readings: the figures above and the chart below summarise them; "
+    if not outside:
+        return text + "none is outside the window."
+    if listed < outside:
+        return (
+            text + f"the first {listed} of the {outside} outside the window are listed "
+            f"(… and {outside - listed} more, on the chart)."
+        )
+    return text + f"the {outside} outside the window are listed."
+
+
+def readings_statistics(
+    count: int, lowest: str, lowest_at: int, highest: str, highest_at: int, mean: str, gmean: str
+) -> str:
+    """A long list of readings in one line: count, extremes with their point numbers, means."""
+    return (
+        f"{count} readings: lowest {lowest} (point {lowest_at}), highest {highest} "
+        f"(point {highest_at}), mean {mean}, geometric mean {gmean}"
+    )
+
+
+def names_cut(names: Sequence[str], more: int) -> str:
+    """A list of names cut short, with how many are left out."""
+    return f"{', '.join(names)} … and {more} more"
+
+
 SHOCK = "Shock"
 SHOCK_SUPPLY = "Supply system"
 SHOCK_TOUCH_VOLTAGE = "Touch voltage"
@@ -552,6 +580,11 @@ def voltage_chart_caption(fuel: str) -> str:
         "more than the no-spark voltage; above a site-MIE line (one per capacitance) it "
         "can ignite the most easily ignited fuel at a site" + (f": {fuel}." if fuel else ".")
     )
+
+
+def curves_shown(shown: int, total: int) -> str:
+    """Added to the body-voltage chart's caption when it leaves curves out."""
+    return f" Of {total} curves, the {shown} highest at the room's humidity are drawn."
 
 
 def oxygen_chart_title(case_id: str) -> str:

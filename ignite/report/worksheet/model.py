@@ -38,6 +38,15 @@ from ignite.wording.numbers import (
     format_si,
 )
 
+# How much of a long list the worksheet lays out row by row; beyond it, a summary. A list
+# the loader accepts (ignite.room.bounds.LISTS) then always fits the pages.
+SHORT_LIST = 24  # floor readings listed one per row; more are summarised
+LISTED_OUTSIDE = 24  # readings outside the window listed under a summary
+NAMES_SHOWN = 10  # names printed in one cell before "… and N more"
+NAMES_CHARACTERS = 300  # nor more characters of names than this in one cell
+CURVES_SHOWN = 8  # curves on the body-voltage chart: the highest at the room's RH
+LABEL_CHARACTERS = 60  # a chart legend's label is cut past this, with "…"
+
 # --------------------------------------------------------------------------- views
 
 
@@ -152,6 +161,7 @@ class WorksheetView:
     no_cases_text: str
     floor_summary: Table
     floor_readings: Table
+    floor_readings_note: str  # under a long list: what is shown of it ("" for a short one)
     floor_chart: Chart | None
     shock: Table
     shock_note: str
@@ -215,6 +225,7 @@ def build_view(
         no_cases_text=say.NO_CASES,
         floor_summary=_floor_summary(results),
         floor_readings=_floor_readings(results),
+        floor_readings_note=_floor_readings_note(results),
         floor_chart=_floor_chart(results),
         shock=_shock_table(results),
         shock_note=results.floor.shock_note,
@@ -494,9 +505,9 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         rows.append((mie_label, format_si(case.mie_J, "J"), "", ""))
 
     lists = (
-        (say.CASE_MATERIALS_BURNING, say.names_or_none(case.materials_sustain_burning)),
-        (say.CASE_MATERIALS_CHARGE, say.names_or_none(case.materials_holding_charge)),
-        (say.CASE_IGNITION_SOURCES, say.names_or_none(case.ignition_sources)),
+        (say.CASE_MATERIALS_BURNING, names_or_none(case.materials_sustain_burning)),
+        (say.CASE_MATERIALS_CHARGE, names_or_none(case.materials_holding_charge)),
+        (say.CASE_IGNITION_SOURCES, names_or_none(case.ignition_sources)),
     )
     return CaseView(
         heading=say.case_heading(case.id, case.procedure),
@@ -525,8 +536,8 @@ def _triad(case: CaseResult, limit_text: str) -> tuple[TriadElement, ...]:
     if case.drying_time_s is not None:
         fuel_parts.append(say.prep_dries_in(case.drying_time_s, HORIZON))
     if case.materials_sustain_burning:
-        fuel_parts.append(say.materials_keep_burning(", ".join(case.materials_sustain_burning)))
-    ignition_why = ", ".join(case.ignition_sources) if case.ignition_sources else say.NONE_LISTED
+        fuel_parts.append(say.materials_keep_burning(names(case.materials_sustain_burning)))
+    ignition_why = names(case.ignition_sources) if case.ignition_sources else say.NONE_LISTED
     return (
         TriadElement(say.TRIAD_OXIDANT, triad.oxidant, say.presence(triad.oxidant), oxidant_why),
         TriadElement(
@@ -564,20 +575,49 @@ def _floor_summary(results: Results) -> Table:
         (say.FLOOR_RESULT, result),
     ]
     if floor.point_to_point_ohm:
-        rows.append(
-            (
-                say.FLOOR_POINT_TO_POINT,
-                ", ".join(format_si(r, "Ω") for r in floor.point_to_point_ohm),
-            )
-        )
+        rows.append((say.FLOOR_POINT_TO_POINT, _point_to_point(floor.point_to_point_ohm)))
     return Table(headers=(say.FLOOR, ""), rows=tuple(rows), widths=(1.0, 2.2))
 
 
+def _point_to_point(readings: Sequence[float]) -> str:
+    """A few readings one by one; a long list as its statistics."""
+    if len(readings) <= SHORT_LIST:
+        return ", ".join(format_si(r, "Ω") for r in readings)
+    finite = [(r, n) for n, r in enumerate(readings, start=1) if math.isfinite(r)]
+    if not finite:
+        return say.readings_statistics(len(readings), NO_VALUE, 0, NO_VALUE, 0, NO_VALUE, NO_VALUE)
+    lowest, lowest_at = min(finite)
+    highest, highest_at = max(finite, key=lambda item: (item[0], -item[1]))
+    values = [r for r, _ in finite]
+    mean = math.fsum(values) / len(values)
+    positive = [r for r in values if r > 0]
+    gmean = (
+        math.exp(math.fsum(math.log(r) for r in positive) / len(positive))
+        if len(positive) == len(values)
+        else None
+    )
+    return say.readings_statistics(
+        len(readings),
+        format_si(lowest, "Ω"),
+        lowest_at,
+        format_si(highest, "Ω"),
+        highest_at,
+        format_si(mean, "Ω"),
+        format_si(gmean, "Ω"),
+    )
+
+
 def _floor_readings(results: Results) -> Table:
+    """Every reading when there are a few; beyond SHORT_LIST, those outside the window only
+    (at most LISTED_OUTSIDE), the statistics and the chart standing for the rest."""
     floor = results.floor
     low, high = floor.window_low_ohm, floor.window_high_ohm
+    indices: Sequence[int] = range(len(floor.readings_ohm))
+    if len(floor.readings_ohm) > SHORT_LIST:
+        indices = sorted(floor.readings_outside)[:LISTED_OUTSIDE]
     rows = []
-    for index, reading in enumerate(floor.readings_ohm):
+    for index in indices:
+        reading = floor.readings_ohm[index]
         text, against = _reading_against_window(reading, low, high)
         if index in floor.readings_outside:
             below = low is not None and (
@@ -591,8 +631,37 @@ def _floor_readings(results: Results) -> Table:
         headers=say.READINGS_HEADERS,
         rows=tuple(rows),
         widths=(0.35, 1.0, 1.85),
-        empty_text=say.NO_READINGS,
+        # a long list with none outside the window lists nothing: its note says so
+        empty_text=say.NO_READINGS if len(floor.readings_ohm) <= SHORT_LIST else "",
     )
+
+
+def _floor_readings_note(results: Results) -> str:
+    floor = results.floor
+    count = len(floor.readings_ohm)
+    if count <= SHORT_LIST:
+        return ""
+    outside = len(floor.readings_outside)
+    return say.readings_summarised(count, outside, min(outside, LISTED_OUTSIDE))
+
+
+def names(items: Sequence[str]) -> str:
+    """Names joined by commas, cut with "… and N more" past NAMES_SHOWN names or
+    NAMES_CHARACTERS characters (the first name is always given)."""
+    shown: list[str] = []
+    used = 0
+    for name in items:
+        if shown and (len(shown) >= NAMES_SHOWN or used + len(name) > NAMES_CHARACTERS):
+            break
+        shown.append(name)
+        used += len(name) + 2
+    if len(shown) == len(items):
+        return ", ".join(items)
+    return say.names_cut(shown, len(items) - len(shown))
+
+
+def names_or_none(items: Sequence[str]) -> str:
+    return names(items) if items else say.NONE
 
 
 def _log_distance(a: float, b: float) -> float:
@@ -884,6 +953,15 @@ def _voltage_chart(results: Results) -> Chart | None:
     curves = [(label, pts) for label, pts in curves if pts]
     if not curves:
         return None
+    rh_now = results.environment.relative_humidity_fraction
+    total = len(curves)
+    if total > CURVES_SHOWN:
+        # the worst first: the highest voltage at (the point nearest) the room's humidity
+        def now(points: Sequence[tuple[float, float]]) -> float:
+            return min(points, key=lambda p: abs(p[0] - rh_now))[1]
+
+        kept = sorted(range(total), key=lambda i: -now(curves[i][1]))[:CURVES_SHOWN]
+        curves = [curves[i] for i in sorted(kept)]
     lines = [
         RefLine("h", results.no_spark_voltage_V, say.no_spark_below(results.no_spark_voltage_V))
     ]
@@ -909,7 +987,6 @@ def _voltage_chart(results: Results) -> Chart | None:
             label = say.site_mie_line(mie, listing) if index == 0 else ""
             lines.append(RefLine("h", voltage, label))
     fuel = results.lowest_site_mie_fuel
-    rh_now = results.environment.relative_humidity_fraction
     lines.append(RefLine("v", rh_now * 100, say.room_rh(rh_now), kind="event"))
     xs = [rh * 100 for _, pts in curves for rh, _ in pts] + [rh_now * 100]
     ys = [v for _, pts in curves for _, v in pts] + [
@@ -920,12 +997,20 @@ def _voltage_chart(results: Results) -> Chart | None:
         x=linear_axis(say.VOLTAGE_CHART_AXIS_X, min(xs), max(xs)),
         y=log_axis(say.VOLTAGE_CHART_AXIS_Y, min(ys) / 1.5, max(ys) * 1.5, "V"),
         series=tuple(
-            Series(label, tuple((rh * 100, v) for rh, v in pts), style)
+            Series(_short(label), tuple((rh * 100, v) for rh, v in pts), style)
             for style, (label, pts) in enumerate(curves)
         ),
         lines=tuple(lines),
-        caption=say.voltage_chart_caption(fuel),
+        caption=say.voltage_chart_caption(fuel)
+        + (say.curves_shown(len(curves), total) if total > len(curves) else ""),
     )
+
+
+def _short(label: str) -> str:
+    """A label cut to LABEL_CHARACTERS with a mark, so that a chart's legend fits."""
+    if len(label) <= LABEL_CHARACTERS:
+        return label
+    return label[: LABEL_CHARACTERS - 1].rstrip() + "…"
 
 
 def _oxygen_chart(case: CaseResult, enriched: float) -> Chart | None:

@@ -256,7 +256,9 @@ def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
             if number > 1:
                 self.setFont(FONT, 7)
                 self.drawString(
-                    left, height - MARGIN_TOP + 5, f"{view.heading} — {view.subheading}"
+                    left,
+                    height - MARGIN_TOP + 5,
+                    fit(f"{view.heading} — {view.subheading}", FONT, 7, right - left),
                 )
                 self.line(left, height - MARGIN_TOP + 2, right, height - MARGIN_TOP + 2)
             top = MARGIN_BOTTOM - 5
@@ -273,7 +275,51 @@ def _canvas_maker(view: model.WorksheetView) -> type[Canvas]:
     return WorksheetCanvas
 
 
+def fit(text: str, font: str, size: float, width: float) -> str:
+    """`text` as it is if it fits `width` on one line, else cut with "…" to fit."""
+    if pdfmetrics.stringWidth(text, font, size) <= width:
+        return text
+    low, high = 0, len(text)  # the longest prefix that fits with the mark
+    while low < high:
+        middle = (low + high + 1) // 2
+        if pdfmetrics.stringWidth(text[:middle] + "…", font, size) <= width:
+            low = middle
+        else:
+            high = middle - 1
+    return text[:low].rstrip() + "…"
+
+
 # --------------------------------------------------------------------------- tables
+
+
+TALL_ROW = 600.0  # [pt] a row taller than this may not fit a page's frame (A4 or letter)
+LEAST_PIECE = 36.0  # [pt] the least height of a row's piece left at the foot of a page
+
+
+class _RowSplitting:
+    """A table that splits inside a row only where it must: when no whole row fits and a
+    row is taller than a page could hold. Other tables break between rows, as before."""
+
+    splitInRow: int
+    _rowHeights: list[float]
+
+    def split(self, availWidth: float, availHeight: float) -> list[Flowable]:
+        parts: list[Flowable] = super().split(availWidth, availHeight)  # type: ignore[misc]
+        if parts or self.splitInRow or max(self._rowHeights or [0.0]) <= TALL_ROW:
+            return parts
+        self.splitInRow = int(LEAST_PIECE)
+        try:
+            return super().split(availWidth, availHeight)  # type: ignore[misc]
+        finally:
+            self.splitInRow = 0
+
+
+class SplitTable(_RowSplitting, Table):
+    pass
+
+
+class SplitLongTable(_RowSplitting, LongTable):
+    pass
 
 
 def _table_style(header: bool = True) -> list[tuple[Any, ...]]:
@@ -303,14 +349,14 @@ def _widths(weights: Sequence[float], width: float) -> list[float]:
 def _grid(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
     """A table with a header row repeated on every page it runs over."""
     if not table.rows:
-        return _p(table.empty_text, st["body"])
+        return _p(table.empty_text, st["body"]) if table.empty_text else Spacer(1, 0)
     widths = _widths(table.widths, width)
     data = [[_p(h, st["cellbold"]) for h in table.headers]]
     data += [
         [_cell(cell, st["cell"], w) for cell, w in zip(row, widths, strict=True)]
         for row in table.rows
     ]
-    grid = LongTable(data, colWidths=widths, repeatRows=1, hAlign="LEFT")
+    grid = SplitLongTable(data, colWidths=widths, repeatRows=1, hAlign="LEFT")
     cell = st["cell"]
     grid.setStyle(
         TableStyle(
@@ -338,7 +384,7 @@ def _pairs(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> F
     """A two-column label/value table under a title row."""
     data = [[_p(table.headers[0], st["cellbold"]), ""]]
     data += [[_p(label, st["cell"]), _p(value, st["cell"])] for label, value in table.rows]
-    grid = Table(data, colWidths=_widths(table.widths, width), hAlign="LEFT")
+    grid = SplitTable(data, colWidths=_widths(table.widths, width), hAlign="LEFT")
     grid.setStyle(TableStyle([*_table_style(), ("SPAN", (0, 0), (-1, 0))]))
     return grid
 
@@ -351,7 +397,7 @@ def _header(
 ) -> list[Flowable]:
     story: list[Flowable] = [_p(view.heading, st["title"]), _p(view.subheading, st["subtitle"])]
     rows = [[_p(k, st["cellbold"]), _p(v, st["cell"])] for k, v in view.header]
-    block = Table(rows, colWidths=[28 * mm, width - 28 * mm], hAlign="LEFT")
+    block = SplitTable(rows, colWidths=[28 * mm, width - 28 * mm], hAlign="LEFT")
     block.setStyle(TableStyle(_table_style(header=False)))
     story.append(block)
     story.append(Spacer(1, 6))
@@ -420,7 +466,7 @@ def _finding_card(
                 _p(mitigation, st["tick"], bulletText=say.TICK_BOX),
             ]
         )
-    card = Table(rows, colWidths=[label_width, width - label_width], hAlign="LEFT")
+    card = SplitTable(rows, colWidths=[label_width, width - label_width], hAlign="LEFT")
     weight = {"high": 1.8, "medium": 1.2}.get(finding.severity, 0.7)
     card.setStyle(
         TableStyle(
@@ -455,7 +501,7 @@ def _triad(case: model.CaseView, width: float, st: dict[str, ParagraphStyle]) ->
             ]
         )
     row = cells
-    triad = Table([row], colWidths=[width / 3] * 3, hAlign="LEFT")
+    triad = SplitTable([row], colWidths=[width / 3] * 3, hAlign="LEFT")
     style = _table_style(header=False)
     triad.setStyle(TableStyle(style))
     return triad
@@ -547,6 +593,8 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
     story.append(Spacer(1, 5))
     readings = _grid(view.floor_readings, half, st)
     # a short list of readings stays on one page; a long one runs on, header repeated
+    if view.floor_readings_note:
+        story += [_p(view.floor_readings_note, st["small"]), Spacer(1, 2)]
     story.append(KeepTogether([readings]) if len(view.floor_readings.rows) <= 15 else readings)
     if view.floor_chart is not None:
         story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 170, st)]
@@ -560,7 +608,10 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
         story.append(Spacer(1, 2))
         story.append(_p(view.charges_note, st["small"]))
     if view.voltage_chart is not None:
-        story += [Spacer(1, 5), _chart_block(view.voltage_chart, width, 215, st)]
+        # a legend of more than three rows takes its room from below, not from the plot
+        rows = len(_legend_rows(view.voltage_chart, width - 50))
+        height = 215 + 10 * max(0, rows - 3)
+        story += [Spacer(1, 5), _chart_block(view.voltage_chart, width, height, st)]
 
     story += [
         CondPageBreak(40 * mm),

@@ -151,8 +151,19 @@ def _window(low: float | None, high: float | None) -> str:
     return f"{format_si(low, 'Ω')} – {format_si(high, 'Ω')}"
 
 
+POINTS_SHOWN = 12  # test points named in the rooms table; more are counted
+
+
 def _points(points: Sequence[int]) -> str:
-    return ("point " if len(points) == 1 else "points ") + ", ".join(str(p) for p in points)
+    """The test points outside the window; past POINTS_SHOWN, the rest counted.
+
+    >>> _points([3]), _points(range(1, 15))
+    ('point 3', 'points 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12 … and 2 more')
+    """
+    shown = ", ".join(str(p) for p in list(points)[:POINTS_SHOWN])
+    if len(points) > POINTS_SHOWN:
+        shown += f" … and {len(points) - POINTS_SHOWN} more"
+    return ("point " if len(points) == 1 else "points ") + shown
 
 
 def _amount(value: float | None, unit: str, limit: float | None = None) -> tuple[str, str]:
@@ -233,7 +244,9 @@ def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
 
 def _table(rows: list[list[Any]], widths: Sequence[float], header: bool = True) -> Any:
     from reportlab.lib import colors
-    from reportlab.platypus import Table, TableStyle
+    from reportlab.platypus import TableStyle
+
+    from ignite.report.worksheet.pdf import SplitTable  # lazy: pdf imports reportlab
 
     style: list[tuple[Any, ...]] = [
         ("FONTNAME", (0, 0), (-1, -1), FONT),
@@ -250,7 +263,7 @@ def _table(rows: list[list[Any]], widths: Sequence[float], header: bool = True) 
             ("BACKGROUND", (0, 0), (-1, 0), colors.Color(0.9, 0.9, 0.9)),
             ("LINEBELOW", (0, 0), (-1, 0), 0.8, colors.black),
         ]
-    table = Table(rows, colWidths=list(widths), repeatRows=1 if header else 0)
+    table = SplitTable(rows, colWidths=list(widths), repeatRows=1 if header else 0)
     table.setStyle(TableStyle(style))
     return table
 
