@@ -346,8 +346,10 @@ def test_stiller_air_or_cooler_skin_never_dries_faster(ipa70, case, cooler):
     base = run(ipa70, **case)
     still = run(ipa70, **{**case, "air_speed_m_s": case["air_speed_m_s"] * 0.5})
     cold = run(ipa70, **{**case, "film_temperature_K": case["film_temperature_K"] - cooler})
-    assert still.open_air_drying_time_s >= base.open_air_drying_time_s * (1 - 1e-6)
-    assert cold.open_air_drying_time_s >= base.open_air_drying_time_s * (1 - 1e-6)
+    # within the solver's own accuracy (relative tolerance 1e-5): where diffusion alone
+    # carries the vapour, air speed changes the time by less than that
+    assert still.open_air_drying_time_s >= base.open_air_drying_time_s * (1 - 1e-4)
+    assert cold.open_air_drying_time_s >= base.open_air_drying_time_s * (1 - 1e-4)
 
 
 @settings(max_examples=5, deadline=None)
