@@ -83,6 +83,25 @@ class OutputExistsError(IgniteError):
         super().__init__(f"{self.path} exists; use --force to overwrite it")
 
 
+class SolveLimitError(IgniteError):
+    """A numerical solve used up its step budget without finishing: ignite's own defect
+    for a valid room (exit 4), reported with what was being solved, never a hang.
+
+    >>> str(SolveLimitError("the drying of 70 % isopropanol, in open air", 100000))
+    'the drying of 70 % isopropanol, in open air: the solve stopped after 100000 steps without finishing; no figures are given for it (please report it with the room file)'
+    """
+
+    exit_code = EXIT_INTERNAL
+
+    def __init__(self, what: str, steps: int) -> None:
+        self.what = what
+        self.steps = steps
+        super().__init__(
+            f"{what}: the solve stopped after {steps} steps without finishing; no figures "
+            "are given for it (please report it with the room file)"
+        )
+
+
 class PathError(IgniteError):
     """A path that cannot be read or written (a usage error): one line naming it and why.
 

@@ -171,3 +171,21 @@ def test_a_room_at_the_limits_gives_a_letter_worksheet(tmp_path: Path) -> None:
     result = CliRunner().invoke(main, ["assess", str(room), "-o", str(out), "--paper", "letter"])
     assert result.exit_code == 0, result.output
     assert len(PdfReader(out).pages) > 10
+
+
+# --- a solve that runs out of steps stops with a clear error, never a hang --------------
+
+
+def test_a_drying_solve_past_its_step_budget_is_an_internal_error_naming_the_case(
+    monkeypatch, tmp_path
+):
+    from ignite.simulate import drying
+
+    monkeypatch.setattr(drying, "MAX_EVALUATIONS", 5)
+    room = Path(__file__).parent.parent / "sample_rooms" / "day-surgery-head-neck.yaml"
+    result = CliRunner().invoke(main, ["check", str(room)])
+    assert result.exit_code == 4, result.output
+    assert "the drying solve (open air) of preparation" in result.output
+    assert "stopped after 5 steps without finishing" in result.output
+    assert re.search(r"case \S+: the drying solve", result.output)
+    assert "Traceback" not in result.output

@@ -57,7 +57,7 @@ from ignite.audit.io import (
     sha256_hex,
     write_new,
 )
-from ignite.errors import InputError, OutputExistsError, PathError, unreadable
+from ignite.errors import InputError, OutputExistsError, PathError, SolveLimitError, unreadable
 from ignite.records.register import (
     ASSESSED,
     ERROR,
@@ -240,6 +240,8 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
         bound, results = pipeline.evaluate_room(Path(path), book)
     except InputError as exc:
         return outcome(INVALID, [str(problem) for problem in exc.problems])
+    except SolveLimitError as exc:
+        return outcome(ERROR, [f"{file}: not assessed: {exc}"])
     except Exception as exc:
         return outcome(
             ERROR,

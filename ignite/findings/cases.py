@@ -81,6 +81,7 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "holding_charge": ", ".join(case.materials_holding_charge) or "none",
         "drying_time": sentences.drying_time(case.drying_time_s, HORIZON),
         "activation_wait": sentences.activation_wait(case.drying_time_s, HORIZON),
+        "open_air_drying": sentences.open_air_drying(case.open_air_drying_time_s, HORIZON),
         "safe_draping": format_duration(round_up(case.safe_draping_after_s)),
         "draping_after": format_duration(case.draping_after_s),
         "first_activation": format_duration(case.first_activation_after_s),

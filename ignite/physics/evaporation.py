@@ -423,10 +423,14 @@ def heat_transfer_coefficient_chilton_colburn(
     heat_capacity: float,
     thermal_diffusivity: float,
     diffusivity: float,
+    lewis_exponent: float = 2.0 / 3.0,
 ) -> float:
     """Convective heat-transfer coefficient from a mass-transfer coefficient [W/(m²·K)].
 
-        h = k · ρ · c_p · Le^⅔,    Le = α / D
+        h = k · ρ · c_p · Le^n,    Le = α / D,    n = ⅔
+
+    lewis_exponent n is ⅔ for Chilton–Colburn; n = 0 is the Lewis relation (psychrometric
+    ratio 1), the assumption behind the thermodynamic wet-bulb temperature.
 
     the Chilton–Colburn analogy (j_H = j_D). mass_transfer_coefficient k [m/s]; density ρ
     [kg/m³] and heat capacity c_p [J/(kg·K)] of the air; thermal_diffusivity α [m²/s] of
@@ -444,7 +448,7 @@ def heat_transfer_coefficient_chilton_colburn(
     if min(density, heat_capacity, thermal_diffusivity, diffusivity) <= 0.0:
         raise ValueError("density, heat capacity and diffusivities must be positive")
     lewis = thermal_diffusivity / diffusivity
-    return mass_transfer_coefficient * density * heat_capacity * lewis ** (2.0 / 3.0)
+    return mass_transfer_coefficient * density * heat_capacity * lewis**lewis_exponent
 
 
 def heat_transfer_coefficient_radiation(

@@ -165,6 +165,7 @@ class CaseResult:
     film_temperature_min_K: float | None = None  # coldest film temperature until dry
     mass_transfer_regime: str = ""  # forced | natural | mixed | diffusion-limited, open air
     mass_transfer_regime_under_drapes: str = ""  # the same once draped ('' if dry by then)
+    open_air_drying_time_s: float | None = None  # drying time if the site stayed uncovered
 
 
 @dataclass(frozen=True)
@@ -263,6 +264,8 @@ _NO_VALUE_REASONS: dict[str, str] = {
     "drying_time_s": "never: the flammable part of the prep does not evaporate in the time "
     "modelled",
     "safe_draping_after_s": "never: the drape pocket does not stay below the limit",
+    "open_air_drying_time_s": "never: the flammable part of the prep does not evaporate in "
+    "the time modelled",
     "settle_time_s": "never: the voltage does not fall below the no-spark voltage",
 }
 _UNIT_SUFFIXES = (

@@ -7,6 +7,8 @@ and the caution), they say it the same way.
 
 from __future__ import annotations
 
+import math
+
 from ignite.records.results import SEVERITIES, ChargeResult, Finding, Results, severity_rank
 from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
@@ -73,6 +75,8 @@ def finding_lines(finding: Finding) -> list[str]:
         measured, limit = format_against_limit(
             finding.measured.value, finding.limit.value, finding.measured.unit
         )
+        if finding.measured.unit == "s" and math.isinf(finding.measured.value):
+            measured = say.beyond_horizon(HORIZON)  # only a drying time can be infinite
         lines.append(f"      {say.measured_against_limit(measured, finding.comparison, limit)}")
     if finding.detail:
         lines.append(f"      {finding.detail}")

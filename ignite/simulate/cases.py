@@ -6,6 +6,7 @@ import math
 from dataclasses import dataclass
 from functools import lru_cache
 
+from ignite.errors import SolveLimitError
 from ignite.physics import ignition, oxygen
 from ignite.records.results import (
     CaseResult,
@@ -202,14 +203,21 @@ def _drying(
     if film_t != analysis.film_temperature_K:
         prep = next(p for p in room.preparations if p.id == case.prep.preparation)
         analysis = analyse(prep.components, prep.basis, film_t)
-    outcome = simulate_prep(
-        analysis,
-        Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
-        RoomAir(room.environment.temperature, room.environment.relative_humidity, case.air_speed),
-        DrapePlan(case.draping_after, case.first_activation_after),
-        DrapePocket(case.drape_pocket.volume, case.drape_pocket.exchange),
-        assumptions,
-    )
+    try:
+        outcome = simulate_prep(
+            analysis,
+            Film(case.prep.volume, case.prep.area, film_t, case.prep.hair, case.prep.pooling),
+            RoomAir(
+                room.environment.temperature, room.environment.relative_humidity, case.air_speed
+            ),
+            DrapePlan(case.draping_after, case.first_activation_after),
+            DrapePocket(case.drape_pocket.volume, case.drape_pocket.exchange),
+            assumptions,
+        )
+    except SolveLimitError as exc:
+        raise SolveLimitError(
+            sentences.solve_subject(case.id, case.prep.preparation, exc.what), exc.steps
+        ) from exc
     return outcome, any(analysis.flammable)
 
 
@@ -288,6 +296,7 @@ def case_result(
         pocket_at_activation_fraction_of_lfl=(
             outcome.pocket_at_activation_fraction_of_lfl if outcome else None
         ),
+        open_air_drying_time_s=outcome.open_air_drying_time_s if outcome else None,
         oxygen_curve=site.curve,
         film_curve=outcome.film_curve if outcome else (),
         notes=tuple(notes),

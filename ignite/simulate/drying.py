@@ -36,6 +36,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from typing import Protocol
 
+from ignite.errors import SolveLimitError
 from ignite.physics.vapour import STANDARD_PRESSURE
 from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.film import FilmModel, film_diffusivities, film_patches
@@ -123,6 +124,27 @@ class _Solution(Protocol):
 
 _RTOL = 1e-5
 
+# Right-hand-side evaluations one solve may use: the sample rooms' solves take at most
+# about 2000, so a solve that reaches this is stuck, and stops with a clear error rather
+# than run for ever (each evaluation costs about the same, so this bounds time as well).
+MAX_EVALUATIONS = 100_000
+
+
+def _bounded(
+    rhs: Callable[[float, Sequence[float]], list[float]], phase: str
+) -> Callable[[float, Sequence[float]], list[float]]:
+    """`rhs` that raises `SolveLimitError` once it has been called MAX_EVALUATIONS times."""
+    calls = 0
+
+    def counted(t: float, state: Sequence[float]) -> list[float]:
+        nonlocal calls
+        calls += 1
+        if calls > MAX_EVALUATIONS:
+            raise SolveLimitError(f"the drying solve ({phase})", MAX_EVALUATIONS)
+        return rhs(t, state)
+
+    return counted
+
 
 def _max_step(model: FilmModel) -> float:
     """Longest solver step [s]: half the pocket's time constant, at most 10 min. Without
@@ -153,7 +175,7 @@ def _open_phase(model: FilmModel, dry_fraction: float, horizon: float) -> _Solut
         return model.flammable_left(state) - dry_fraction
 
     solution: _Solution = solve_ivp(
-        model.rhs(covered=False),
+        _bounded(model.rhs(covered=False), "open air"),
         (0.0, horizon),
         model.initial,
         method="LSODA",
@@ -209,7 +231,7 @@ def _covered_phase(
         return model.flammable_left(state[:npc]) - dry_fraction
 
     solution: _Solution = solve_ivp(
-        model.rhs(covered=True),
+        _bounded(model.rhs(covered=True), "under the drapes"),
         (start, max(horizon, start + 1.0)),
         state0,
         method="LSODA",

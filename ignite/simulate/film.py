@@ -171,12 +171,15 @@ class FilmModel:
         tissue_conductance: float,
         emissivity: float,
         fastest: bool = False,
+        lewis_exponent: float = 2.0 / 3.0,
     ) -> None:
         """fastest: the fastest evaporation the film could have, an upper bound for the
         drape pocket's source: the film held at the warmer of skin and air (no
         evaporative cooling), and natural convection driven by that warmth alone (the
         vapour's weight left out). Otherwise the film's temperature comes from its heat
-        balance and the buoyancy from its temperature and its vapour together."""
+        balance and the buoyancy from its temperature and its vapour together.
+        lewis_exponent: the heat/mass analogy's exponent, ⅔ (Chilton–Colburn); the
+        validation sets 0 (the Lewis relation) to meet the thermodynamic wet bulb."""
         if tissue_conductance < 0.0:
             raise ValueError("tissue conductance must not be negative")
         self.cas = analysis.cas
@@ -190,6 +193,7 @@ class FilmModel:
         self.tissue_conductance = tissue_conductance
         self.emissivity = emissivity
         self.fastest = fastest
+        self.lewis_exponent = lewis_exponent
         self.air_speed = air_speed
         self.under_drape_air_speed = under_drape_air_speed
         self.molar_masses = [substance(c).molar_mass for c in self.cas]
@@ -299,7 +303,12 @@ class FilmModel:
                 buoyancy,
             )
             h_sum += heat_transfer_coefficient_chilton_colburn(
-                k, 1.0, self.rho_cp, self.thermal_diffusivity, self.diffusivities[i]
+                k,
+                1.0,
+                self.rho_cp,
+                self.thermal_diffusivity,
+                self.diffusivities[i],
+                self.lewis_exponent,
             )
             h_count += 1
             if patch.still_layer > 0.0:

@@ -11,7 +11,7 @@ import math
 from collections.abc import Mapping, Sequence
 
 from ignite.records.results import SEVERITIES
-from ignite.wording.numbers import format_duration, format_si
+from ignite.wording.numbers import NO_VALUE, format_duration, format_si
 
 # --- cautions, labels and verdicts (report) ------------------------------------------
 # The terminal table (report/text.py), the worksheet's view model and renderer
@@ -281,6 +281,20 @@ def drying_time(seconds: float | None, horizon_s: float) -> str:
     """A computed drying time; an infinite one says the model found the prep still wet."""
     if seconds is not None and math.isinf(seconds):
         return f"over {format_duration(horizon_s)} (still wet at the end of the model's horizon)"
+    return format_duration(seconds)
+
+
+def beyond_horizon(horizon_s: float) -> str:
+    """A computed time that does not come within the model's horizon (a prep still wet)."""
+    return f"over {format_duration(horizon_s)} (the end of the model's horizon)"
+
+
+def open_air_drying(seconds: float | None, horizon_s: float) -> str:
+    """The prep's drying time if the site stays uncovered."""
+    if seconds is None:
+        return NO_VALUE
+    if math.isinf(seconds):
+        return beyond_horizon(horizon_s)
     return format_duration(seconds)
 
 
@@ -853,6 +867,11 @@ def note_wet_at_activation(left_fraction: float, surface_fraction_of_lfl: float)
 def note_not_dry_within_horizon(horizon: float) -> str:
     """horizon : the longest time simulated [s]."""
     return f"not dry within {horizon / 3600:g} h"
+
+
+def solve_subject(case_id: str, preparation: str, what: str) -> str:
+    """What a solve that ran out of steps was computing, for its error."""
+    return f"case {case_id}: {what} of preparation {preparation}"
 
 
 # --- the room's warnings and the floor, charge and case notes (simulate) --------------

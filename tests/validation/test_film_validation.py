@@ -41,7 +41,9 @@ def water():
     return analyse_preparation([("water", 1.0)], "volume", 298.15)
 
 
-def _water_film_temperature(water, dry_bulb: float, rh: float, speed: float) -> float:
+def _water_film_temperature(
+    water, dry_bulb: float, rh: float, speed: float, lewis_exponent: float
+) -> float:
     patches = film_patches(
         1e-6,
         0.01,
@@ -67,45 +69,61 @@ def _water_film_temperature(water, dry_bulb: float, rh: float, speed: float) -> 
         pressure=P,
         tissue_conductance=0.0,  # no skin heat
         emissivity=0.0,  # the psychrometric wet bulb: radiation shielded
+        lewis_exponent=lewis_exponent,
     )
     surface = model.surface(0, model.initial, model.room, covered=False)
     assert surface is not None
     return surface.temperature
 
 
-# psychrolib gives the thermodynamic wet bulb (Lewis number 1). The film's heat balance
-# uses Chilton-Colburn, h = k·ρ·c_p·Le^(2/3) with Le ≈ 0.85-0.88 (psychrometric ratio
-# ≈ 0.9), so it reads a psychrometric wet bulb some 6-7 % of the wet-bulb depression
-# lower: within 0.5 K while the depression is under about 7 K, colder beyond. Colder is
-# the slow (safe) side; the points beyond are kept, marked, so the deviation stays seen.
-_BEYOND = pytest.mark.xfail(
-    strict=True, reason="Chilton-Colburn psychrometric ratio ~0.9: 0.6-0.9 K below"
-)
+_WET_BULB_POINTS = [
+    (20.0, 0.6),
+    (25.0, 0.5),
+    (15.0, 0.8),
+    (25.0, 0.7),
+    (20.0, 0.3),
+    (30.0, 0.2),
+    (35.0, 0.4),
+]
 
 
-@pytest.mark.parametrize(
-    ("dry_bulb_c", "rh"),
-    [
-        (20.0, 0.6),
-        (25.0, 0.5),
-        (15.0, 0.8),
-        (25.0, 0.7),
-        pytest.param(20.0, 0.3, marks=_BEYOND),
-        pytest.param(30.0, 0.2, marks=_BEYOND),
-        pytest.param(35.0, 0.4, marks=_BEYOND),
-    ],
-)
-def test_water_film_without_skin_heat_sits_at_the_wet_bulb(water, dry_bulb_c, rh):
+def _psychrolib_wet_bulb(dry_bulb_c: float, rh: float) -> float:
     import psychrolib
 
     psychrolib.SetUnitSystem(psychrolib.SI)
-    expected = psychrolib.GetTWetBulbFromRelHum(dry_bulb_c, rh, P)
-    ours = _water_film_temperature(water, dry_bulb_c + 273.15, rh, 3.0) - 273.15
+    return float(psychrolib.GetTWetBulbFromRelHum(dry_bulb_c, rh, P))
+
+
+@pytest.mark.parametrize(("dry_bulb_c", "rh"), _WET_BULB_POINTS)
+def test_water_film_without_skin_heat_sits_at_the_wet_bulb(water, dry_bulb_c, rh):
+    """The heat balance itself (latent heat, vapour pressure, humidity, the solve).
+
+    psychrolib's thermodynamic wet bulb assumes the Lewis relation (psychrometric ratio
+    h/(k·ρ·c_p) = 1); the film is put on the same footing (analogy exponent 0) so that
+    the comparison tests the balance, not the choice of analogy.
+    """
+    expected = _psychrolib_wet_bulb(dry_bulb_c, rh)
+    ours = _water_film_temperature(water, dry_bulb_c + 273.15, rh, 3.0, 0.0) - 273.15
     # ASHRAE Handbook - Fundamentals (2017) ch. 1 psychrometric equations, via psychrolib
-    # (published): never warmer than the thermodynamic wet bulb (the safe side) ...
-    assert ours <= expected + 0.05
-    # ... and within 0.5 K of it
+    # (published): within 0.5 K of the thermodynamic wet bulb
     assert ours == pytest.approx(expected, abs=0.5)
+
+
+@pytest.mark.parametrize(("dry_bulb_c", "rh"), _WET_BULB_POINTS)
+def test_the_chilton_colburn_film_runs_colder_than_the_wet_bulb(water, dry_bulb_c, rh):
+    """The product's analogy, h = k·ρ·c_p·Le^⅔ (Le ≈ 0.85 for water vapour in air, a
+    psychrometric ratio ≈ 0.9), reads a film colder than the thermodynamic wet bulb by
+    about a tenth of the wet-bulb depression: colder is slower drying, the safe side."""
+    expected = _psychrolib_wet_bulb(dry_bulb_c, rh)
+    ours = _water_film_temperature(water, dry_bulb_c + 273.15, rh, 3.0, 2.0 / 3.0) - 273.15
+    depression = dry_bulb_c - expected
+    # ASHRAE Handbook - Fundamentals (2017) ch. 1 via psychrolib (published): never warmer
+    # than the thermodynamic wet bulb ...
+    assert ours <= expected + 0.05
+    # ... and no further below it than a psychrometric ratio of 0.9 explains: the
+    # Chilton-Colburn exponent (Incropera & DeWitt eq. 6.60, published) with Le 0.84-0.88
+    # moves the film by at most 15 % of the depression
+    assert expected - ours <= 0.15 * depression + 0.1
 
 
 # --- mass transfer: Mackay & Matsugu, and the forced limit of mixed convection ----------

@@ -312,7 +312,10 @@ def _amounts(finding: Finding) -> tuple[str, str]:
         and measured.unit == limit.unit
         and not (math.isnan(measured.value) or math.isnan(limit.value))
     ):
-        return format_against_limit(measured.value, limit.value, measured.unit)
+        shown, limit_shown = format_against_limit(measured.value, limit.value, measured.unit)
+        if measured.unit == "s" and math.isinf(measured.value):
+            shown = say.beyond_horizon(HORIZON)  # only a drying time can be infinite
+        return shown, limit_shown
     return format_si(measured.value, measured.unit), format_si(limit.value, limit.unit)
 
 
