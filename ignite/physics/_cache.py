@@ -13,7 +13,8 @@ between runs as pickles, one file an entry:
   whose header differs from what is asked for is ignored and rewritten, so a library
   upgrade or an edit to the code that resolves substances never mixes old data in;
 - files are written to a temporary name in the same directory and moved into place
-  with `os.replace`, so a reader never sees half a file;
+  with `os.replace`, so a reader never sees half a file; a temporary file left by a
+  process killed mid-write is removed by the next write once it is STALE_SECONDS old;
 - any failure (unreadable or corrupt file, unwritable directory) is silent: the caller
   computes the value the ordinary way, and the cache is only ever a shortcut.
 
@@ -29,6 +30,7 @@ import os
 import pickle
 import sys
 import tempfile
+import time
 from collections.abc import Callable
 from functools import lru_cache
 from pathlib import Path
@@ -38,6 +40,18 @@ __all__ = ["CACHE_FORMAT", "cache_directory", "load", "store"]
 
 CACHE_FORMAT = 1
 """Raise when the layout of an entry, or what an entry of some kind holds, changes."""
+
+STALE_SECONDS = 600.0
+"""A temporary file this old belongs to no running write (a write takes milliseconds)."""
+
+
+def _sweep(directory: Path) -> None:
+    """Remove temporary files that writers killed mid-write left behind."""
+    now = time.time()
+    for leftover in directory.glob(".tmp-*.pickle"):
+        with contextlib.suppress(OSError):
+            if now - leftover.stat().st_mtime > STALE_SECONDS:
+                leftover.unlink()
 
 
 def cache_directory() -> Path | None:
@@ -121,6 +135,7 @@ def store(kind: str, key: Any, value: Any) -> None:
     try:
         data = pickle.dumps((_header(kind, key), value), protocol=pickle.HIGHEST_PROTOCOL)
         directory.mkdir(parents=True, exist_ok=True)
+        _sweep(directory)
         handle, temporary = tempfile.mkstemp(prefix=".tmp-", suffix=".pickle", dir=directory)
         with os.fdopen(handle, "wb") as file:
             file.write(data)

@@ -194,6 +194,21 @@ def test_cache_writes_only_inside_its_dir(sandbox):
     assert not any(p.name.startswith(".tmp-") for p in created)  # no temporary left behind
 
 
+def test_a_stale_temporary_from_a_killed_writer_is_swept_by_the_next_write(sandbox):
+    # a writer killed mid-write (SIGKILL: no finally runs) leaves its temporary behind
+    sandbox.mkdir(parents=True, exist_ok=True)
+    stale = sandbox / ".tmp-killed.pickle"
+    fresh = sandbox / ".tmp-running.pickle"
+    for leftover in (stale, fresh):
+        leftover.write_bytes(b"half a pickle")
+    old = os.stat(stale).st_mtime - _cache.STALE_SECONDS - 1.0
+    os.utime(stale, (old, old))
+    _cache.store("test", "key", 1)
+    assert not stale.exists()
+    assert fresh.exists()  # another process may be writing it right now
+    assert _cache.load("test", "key", lambda value: value == 1) == 1
+
+
 def test_cache_directory_follows_the_environment(monkeypatch, tmp_path):
     monkeypatch.delenv("IGNITE_NO_CACHE", raising=False)
     monkeypatch.setenv("IGNITE_CACHE_DIR", str(tmp_path / "mine"))
