@@ -48,7 +48,10 @@ METHODS: tuple[MethodRef, ...] = (
         "Activity coefficients by modified UNIFAC (Dortmund); original UNIFAC where a component has no Dortmund groups",
         "Weidlich & Gmehling (1987), parameters to 2016; Fredenslund, Jones & Prausnitz (1975); via thermo",
     ),
-    MethodRef("Mixture flash point", "Liaw et al. (2002)"),
+    MethodRef(
+        "Mixture flash point, shown only (no decision reads it); about 2 K above the published value for 91 % isopropanol",
+        "Liaw et al. (2002)",
+    ),
     MethodRef("Mixture lower flammable limit", "Le Chatelier's rule"),
     MethodRef(
         "Pure-component data (vapour pressure, LFL, flash point, autoignition)",
@@ -63,7 +66,7 @@ METHODS: tuple[MethodRef, ...] = (
         "McAdams, Heat Transmission (via ht); ideal-gas law",
     ),
     MethodRef(
-        "Film temperature from its heat balance: tissue conductance + convection (Chilton–Colburn, h = k·ρ·c_p·Le^⅔) + radiation = Σ N_i·ΔH_vap,i",
+        "Film temperature from its heat balance: tissue conductance + convection (Chilton–Colburn, h = k·ρ·c_p·Le^⅔, a little colder than the Lewis relation: slower drying) + radiation = Σ N_i·ΔH_vap,i",
         "Chilton & Colburn (1934); ΔH_vap by DIPPR / VDI-PPDS correlations via thermo",
     ),
     MethodRef(
