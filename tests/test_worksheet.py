@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import dataclasses
 import functools
 import io
 import os
@@ -113,8 +114,11 @@ def test_findings_rule_ids_sources_and_mitigations(full_pdf: bytes) -> None:
     for finding in fx.full_results().findings:
         assert finding.rule in text
         assert f"{finding.source} ({finding.flag})" in text
+        assert f"rule {finding.rule}" in text
         for mitigation in finding.mitigations:
-            assert f"☐ {mitigation}" in text
+            # each distinct mitigation is one numbered action of the list, ticked there once
+            assert text.count(mitigation) == 1, mitigation
+            assert re.search(r"☐ \d+\. " + re.escape(mitigation), text), mitigation
 
 
 def test_findings_are_printed_worst_first_in_words_and_marks(full_pdf: bytes) -> None:
@@ -145,25 +149,29 @@ def test_overall_verdict(full_pdf: bytes, empty_pdf: bytes) -> None:
 def test_values_just_over_a_limit_never_print_equal_to_it(full_pdf: bytes) -> None:
     text = all_text(full_pdf)
     # Highest floor reading 25.04 MΩ against the ≤ 25 MΩ window (IEC 60364-7-710, published).
-    assert "Measured 25.04 MΩ Limit 25 MΩ (measured is above the limit)" in text
+    assert "Measured: 25.04 MΩ, above the threshold 25 MΩ." in text
     assert "outside: above 25 MΩ" in text
     # A body voltage of 330.4 V against the ~330 V no-spark voltage (Paschen minimum, published).
-    assert "Measured 330.4 V Limit 330 V" in text
+    assert "Computed: 330.4 V, above the threshold 330 V." in text
 
 
 def test_cases_triad_and_quantities(full_pdf: bytes) -> None:
     text = all_text(full_pdf)
     for case in fx.full_results().cases:
         assert f"Case {case.id}: {case.procedure}" in text
-    assert text.count("Fire triad complete") == 2
-    assert text.count("Fire triad incomplete as planned: no oxidant at the site.") == 2
+    complete = "Fire triad: oxidant ✓ · fuel ✓ · ignition source ✓: all three can meet"
+    assert text.count(complete) == 2
+    no_oxidant = "Fire triad: oxidant ✗ · fuel ✓ · ignition source ✓: not all three as planned."
+    assert text.count(no_oxidant) == 2
+    # one value per quantity: the needed stop and the safe draping time are rounded up as
+    # the actions give them (to the next 15 s)
     assert (
-        "Oxygen stopped before activation (planned) 1 min needed 6.49 min shorter than needed"
+        "Oxygen stopped before activation (planned) 1 min needed 6.5 min shorter than needed"
         in text
     )
     assert (
         "Drapes on after the end of prep (planned) 3 min pocket below the vapour margin if "
-        "after 3.85 min too early for the pocket" in text
+        "after 4 min too early for the pocket" in text
     )
     assert (
         "Prep drying time (flammable part gone) 2.53 min first activation at 6 min "
@@ -335,8 +343,9 @@ def _finding(severity: str, measured: float = 1.0, limit: float = 2.0) -> Findin
 )
 def test_verdict_wording(severities: tuple[str, ...], verdict: str) -> None:
     results = fx.empty_results()
+    room = dataclasses.replace(results.room, purpose="pre-list")
     results = type(results)(
-        **{**results.__dict__, "findings": tuple(_finding(s) for s in severities)}
+        **{**results.__dict__, "room": room, "findings": tuple(_finding(s) for s in severities)}
     )
     view = build_view(results, (), (), "")
     assert view.verdict.startswith(verdict)
@@ -378,3 +387,42 @@ def test_terminal_table_words_things_as_the_worksheet_does(which: str) -> None:
     # the caution opens with the worksheet's own first sentence
     first_sentence = view.cautions[0].split(". ")[0] + "."
     assert f"Caution: {first_sentence}" in render_text(results)
+
+
+@pytest.mark.parametrize(
+    ("purpose", "heading", "verdict", "decision"),
+    [
+        (
+            "pre-list",
+            "List plan",
+            "1 high finding: do not start the list until it is addressed.",
+            "Do not start the list",
+        ),
+        (
+            "recommissioning",
+            "Commissioning record",
+            "1 high finding: do not accept the room until it is addressed.",
+            "Do not accept the room",
+        ),
+        (
+            "periodic-audit",
+            "Audit record",
+            "1 high finding: act before the next list in this room",
+            "Stop lists in this room until the actions are done",
+        ),
+    ],
+)
+def test_each_purpose_has_its_own_document_and_decision(purpose, heading, verdict, decision):
+    results = fx.empty_results()
+    room = dataclasses.replace(results.room, purpose=purpose)
+    results = dataclasses.replace(results, room=room, findings=(_finding("high"),))
+    view = build_view(results, (), (), "")
+    assert view.heading.startswith(heading)
+    assert view.verdict.startswith(verdict)
+    assert decision in view.sign_off_decisions
+    text = all_text(render_worksheet(results, (), (), ""))
+    assert heading in text and decision in text
+    # no other purpose's decision leaks into the document
+    for other in ("Do not start the list", "Do not accept the room", "Stop lists in this room"):
+        if not decision.startswith(other):
+            assert other not in text

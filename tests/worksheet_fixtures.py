@@ -900,6 +900,8 @@ def full_results() -> Results:
             ),
             "1 of 10 readings above the upper limit; the highest is at the worst spot for static "
             "charge.",
+            value_kind="measured",
+            limit_kind="threshold",
         ),
         Finding(
             "floor.reading-below-window",
@@ -919,6 +921,8 @@ def full_results() -> Results:
             ),
             "1 of 10 readings at or below the lower limit; the lowest is at the worst spot for "
             "shock current.",
+            value_kind="measured",
+            limit_kind="threshold",
         ),
         Finding(
             "oxygen.enriched-at-activation",

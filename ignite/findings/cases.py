@@ -123,13 +123,13 @@ def _triad_complete(scope: Scope) -> Iterator[Item]:
         yield Item(_subject(case), case.triad.complete, context)
 
 
-@result("case.draping_after", "time")
+@result("case.draping_after", "time", "planned")
 def _draping_after(scope: Scope) -> Iterator[Item]:
     for case, context in _cases(scope):
         yield Item(_subject(case), case.draping_after_s, context)
 
 
-@result("case.first_activation_after", "time")
+@result("case.first_activation_after", "time", "planned")
 def _first_activation_after(scope: Scope) -> Iterator[Item]:
     for case, context in _cases(scope):
         yield Item(_subject(case), case.first_activation_after_s, context)
@@ -150,7 +150,7 @@ def _drying_time_hair(scope: Scope) -> Iterator[Item]:
             yield Item(_subject(case), case.drying_time_s, context)
 
 
-@result("case.flammable_draping_after", "time")
+@result("case.flammable_draping_after", "time", "planned")
 def _flammable_draping_after(scope: Scope) -> Iterator[Item]:
     for case, context in _cases(scope):
         if case.prep_flammable:

@@ -125,7 +125,18 @@ def _run_check(check: BoundCheck, scope: Scope) -> Iterator[Finding]:
                 text for text in (m.format_map(context).strip() for m in check.mitigations) if text
             ),
             detail=check.detail.format_map(context).strip(),
+            value_kind=registered.kind,
+            limit_kind=_limit_kind(limit) if limit_amount.value is not None else "",
         )
+
+
+def _limit_kind(limit: BoundLimit | None) -> str:
+    """What a check's limit is to the reader: a threshold of the rules, or another result."""
+    if limit is None:
+        return ""
+    if limit.result:
+        return RESULTS[limit.result].kind
+    return "threshold"
 
 
 class _SafeContext(dict[str, str | int]):

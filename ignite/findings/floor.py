@@ -36,17 +36,17 @@ def _context(scope: Scope) -> Context:
     }
 
 
-@result("floor.lowest_reading", "resistance")
+@result("floor.lowest_reading", "resistance", "measured")
 def _floor_lowest(scope: Scope) -> Iterator[Item]:
     yield Item("floor", scope.results.floor.min_ohm, _context(scope))
 
 
-@result("floor.highest_reading", "resistance")
+@result("floor.highest_reading", "resistance", "measured")
 def _floor_highest(scope: Scope) -> Iterator[Item]:
     yield Item("floor", scope.results.floor.max_ohm, _context(scope))
 
 
-@result("floor.mean_reading", "resistance")
+@result("floor.mean_reading", "resistance", "measured")
 def _floor_mean(scope: Scope) -> Iterator[Item]:
     fl = scope.results.floor
     if len(fl.readings_ohm) >= scope.bound.window.mean_min_readings:

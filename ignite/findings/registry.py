@@ -2,7 +2,9 @@
 
 An item is one subject (the floor, a person or trolley, a case) with its value and the
 context its rule's detail and mitigation texts may quote. The families register their
-results with `@result(name, dimension)` (ignite.findings.floor, .charge, .cases).
+results with `@result(name, dimension, kind)` (ignite.findings.floor, .charge, .cases);
+`kind` says what the value is to the person reading it: `measured` (a reading a person
+took), `planned` (a time the team planned) or `computed` (ignite's figure).
 """
 
 from __future__ import annotations
@@ -39,16 +41,22 @@ ResultFn = Callable[[Scope], Iterator[Item]]
 class Registered:
     dimension: str
     items: ResultFn
+    kind: str = "computed"  # measured | planned | computed
+
+
+KINDS = ("measured", "planned", "computed")
 
 
 RESULTS: dict[str, Registered] = {}
 
 
-def result(name: str, dimension: str) -> Callable[[ResultFn], ResultFn]:
+def result(name: str, dimension: str, kind: str = "computed") -> Callable[[ResultFn], ResultFn]:
     """Register a result function under the name checks read it by."""
+    if kind not in KINDS:
+        raise ValueError(f"result {name}: kind must be one of {KINDS}, got {kind!r}")
 
     def register(fn: ResultFn) -> ResultFn:
-        RESULTS[name] = Registered(dimension, fn)
+        RESULTS[name] = Registered(dimension, fn, kind)
         return fn
 
     return register

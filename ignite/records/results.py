@@ -41,6 +41,9 @@ class Finding:
     flag: str  # published | memory | common practice
     mitigations: tuple[str, ...] = ()
     detail: str = ""  # one sentence of explanation, already formatted
+    # additions to the contract: what the two amounts are to the reader
+    value_kind: str = "computed"  # measured (a reading taken) | planned | computed
+    limit_kind: str = ""  # threshold (from rules/) | planned | computed | "" (no limit)
 
 
 @dataclass(frozen=True)
@@ -166,6 +169,10 @@ class CaseResult:
     mass_transfer_regime: str = ""  # forced | natural | mixed | diffusion-limited, open air
     mass_transfer_regime_under_drapes: str = ""  # the same once draped ('' if dry by then)
     open_air_drying_time_s: float | None = None  # drying time if the site stayed uncovered
+    # for the plan's timeline: the pocket over time and the limits the actions use
+    pocket_curve: tuple[tuple[float, float], ...] = ()  # (s, pocket vapour / LFL) as planned
+    pocket_margin_fraction_of_lfl: float | None = None  # rules: the pocket stays below this
+    label_minimum_s: float | None = None  # the label's drying time on hairless skin
 
 
 @dataclass(frozen=True)

@@ -21,6 +21,7 @@ from ignite.errors import Problem, RuleFileError, UnitError
 from ignite.records.results import SEVERITIES
 from ignite.room.source import load_yaml
 from ignite.room.units import parse_any, parse_quantity
+from ignite.wording import sentences
 
 FLAGS = ("published", "memory", "common practice", "assumption")
 TESTS = ("above", "at-or-above", "below", "at-or-below", "is-true")
@@ -551,7 +552,7 @@ _TEST_WORDS = {
     "at-or-above": "is at or above",
     "below": "is below",
     "at-or-below": "is at or below",
-    "is-true": "holds",
+    "is-true": "is found",
 }
 
 
@@ -564,7 +565,7 @@ def _limit_text(limit: Limit, entries: Mapping[str, Entry]) -> str:
         return f"{value} ({limit.ref})"
     if limit.kind == "window":
         return f"the floor window's {limit.ref.replace('_', ' ')} limit"
-    return f"that subject's {limit.ref}"
+    return f"that subject's {sentences.result_words(limit.ref).removeprefix('the ')}"
 
 
 def describe(entry: Entry, entries: Mapping[str, Entry] | None = None) -> str:
@@ -573,7 +574,10 @@ def describe(entry: Entry, entries: Mapping[str, Entry] | None = None) -> str:
         reads = entry.get("reads")
         test = entry.get("test")
         limit = entry.get("limit")
-        text = f"{entry.get('severity')} finding when {reads} {_TEST_WORDS[test]}"
+        text = (
+            f"{entry.get('severity')} finding when {sentences.result_words(reads)} "
+            f"{_TEST_WORDS[test]}"
+        )
         if limit is not None:
             text += " " + _limit_text(limit, entries or {})
         return text

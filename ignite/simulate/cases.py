@@ -297,6 +297,13 @@ def case_result(
             outcome.pocket_at_activation_fraction_of_lfl if outcome else None
         ),
         open_air_drying_time_s=outcome.open_air_drying_time_s if outcome else None,
+        pocket_curve=outcome.pocket_curve if outcome else (),
+        pocket_margin_fraction_of_lfl=(
+            bound.prep.pocket_margin if outcome and bound.prep is not None else None
+        ),
+        label_minimum_s=(
+            bound.prep.label_minimum_hairless if prep_flammable and bound.prep is not None else None
+        ),
         oxygen_curve=site.curve,
         film_curve=outcome.film_curve if outcome else (),
         notes=tuple(notes),

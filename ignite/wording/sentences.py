@@ -162,7 +162,7 @@ def worksheet_subject(room_name: str, input_sha256: str) -> str:
 
 
 HEADER_ROOM = "Room"
-HEADER_SITE = "Site"
+HEADER_SITE = "Location"
 HEADER_PURPOSE = "Purpose"
 HEADER_ASSESSED_ON = "Assessed on"
 HEADER_ASSESSOR = "Assessor"
@@ -213,8 +213,8 @@ def footer_rules(rules_digest: str) -> str:
 
 # findings
 SEVERITY_KEY_NOTE = (
-    f"Severity is printed in words and as a mark ({severity_key()}). "
-    "Tick each mitigation when it is in place."
+    f"Severity is printed in words and as a mark ({severity_key()}). Each finding's "
+    "actions are in the numbered list on page 1, where they are ticked."
 )
 CARD_RULE = "Rule"
 CARD_SUBJECT = "Subject"
@@ -255,19 +255,8 @@ def triad_element(present: bool, name: str) -> str:
 
 
 def triad_summary(oxidant: bool, fuel: bool, ignition: bool) -> str:
-    """The fire triad of a case in one sentence."""
-    if oxidant and fuel and ignition:
-        return "Fire triad complete: oxidant, fuel and ignition source can meet at the site."
-    missing = [
-        name
-        for name, present in (
-            ("oxidant", oxidant),
-            ("fuel", fuel),
-            ("ignition source", ignition),
-        )
-        if not present
-    ]
-    return f"Fire triad incomplete as planned: no {' and no '.join(missing)} at the site."
+    """The fire triad of a case in one line, each side in words with a mark."""
+    return triad_in_words(oxidant, fuel, ignition)
 
 
 def triad_oxidant_why(while_flowing: str, at_activation: str, enriched_limit: str) -> str:
@@ -329,7 +318,7 @@ CASE_SITE = "Site"
 CASE_MATERIALS_BURNING = "Materials that would keep burning"
 CASE_MATERIALS_CHARGE = "Materials holding charge at this RH"
 CASE_IGNITION_SOURCES = "Ignition sources"
-CASE_TABLE_HEADERS = ("Quantity", "Value", "Compared with", "Reading")
+CASE_TABLE_HEADERS = ("Quantity", "Computed or planned", "Compared with", "Result")
 
 # cases: the quantities table (label, comparison and reading of each row)
 OXIDANT_WHILE_FLOWING = "Oxidant at the site while oxygen flows"
@@ -544,6 +533,292 @@ SIGN_OFF_DECISIONS = (
 )
 SIGN_OFF_PROMPT = "Decision for the list (tick one):"
 SIGN_OFF_HEADERS = ("", "Name", "Signature", "Date")
+
+# --- documents by purpose: headings, decisions, sign-off, glossary, the plan (report) ----
+
+PURPOSE_PRE_LIST, PURPOSE_RECOMMISSIONING, PURPOSE_AUDIT = (
+    "pre-list",
+    "recommissioning",
+    "periodic-audit",
+)
+
+DOCUMENT_HEADINGS = {
+    PURPOSE_PRE_LIST: "List plan: fire and static ignition",
+    PURPOSE_RECOMMISSIONING: "Commissioning record: floor, static and fire safety",
+    PURPOSE_AUDIT: "Audit record: fire and static ignition",
+}
+
+
+def document_heading(purpose: str) -> str:
+    """The worksheet's heading for its purpose (the old heading for an unknown one)."""
+    return DOCUMENT_HEADINGS.get(purpose, WORKSHEET_HEADING)
+
+
+def purpose_verdict(counts: Mapping[str, int], purpose: str) -> str:
+    """The overall verdict in one line, worded for the decision the document is for."""
+    if purpose == PURPOSE_PRE_LIST or purpose not in DOCUMENT_HEADINGS:
+        return verdict(counts)
+    high, medium, low, note = (counts.get(s, 0) for s in SEVERITIES)
+    them = "it" if (high or medium) == 1 else "them"
+    if purpose == PURPOSE_RECOMMISSIONING:
+        if high:
+            are = "it is" if high == 1 else "they are"
+            return f"{_plural(high, 'high finding')}: do not accept the room until {are} addressed."
+        if medium:
+            return (
+                f"No high findings; {_plural(medium, 'medium finding')}: accept the room only "
+                f"with conditions that address {them}, or record who accepted {them} and why."
+            )
+    else:
+        if high:
+            return (
+                f"{_plural(high, 'high finding')}: act before the next list in this room; "
+                f"record an owner and a date for each action."
+            )
+        if medium:
+            return (
+                f"No high findings; {_plural(medium, 'medium finding')}: record an action, an "
+                f"owner and a date for {them} before the next audit."
+            )
+    if low:
+        return f"No findings above low; {_plural(low, 'low finding')} to review."
+    if note:
+        return f"No findings at or above low; {_plural(note, 'note')} for information."
+    return "No findings at or above low."
+
+
+SIGN_OFF_BY_PURPOSE: dict[str, tuple[str, tuple[str, ...]]] = {
+    PURPOSE_PRE_LIST: (SIGN_OFF_PROMPT, SIGN_OFF_DECISIONS),
+    PURPOSE_RECOMMISSIONING: (
+        "Decision on the room (tick one):",
+        (
+            "Accept the room",
+            "Accept the room with conditions: the actions listed, each with an owner and a date",
+            "Do not accept the room",
+        ),
+    ),
+    PURPOSE_AUDIT: (
+        "Outcome of the audit (tick one):",
+        (
+            "No action needed",
+            "Actions needed: the actions listed, each with an owner and a date",
+            "Stop lists in this room until the actions are done",
+        ),
+    ),
+}
+
+
+def sign_off(purpose: str) -> tuple[str, tuple[str, ...]]:
+    """The sign-off's prompt and decisions for a document's purpose."""
+    return SIGN_OFF_BY_PURPOSE.get(purpose, SIGN_OFF_BY_PURPOSE[PURPOSE_PRE_LIST])
+
+
+_RESPONSIBLE_FOR = {
+    PURPOSE_PRE_LIST: "the decision to start the list",
+    PURPOSE_RECOMMISSIONING: "the decision to accept the room",
+    PURPOSE_AUDIT: "the audit's outcome and its actions",
+}
+
+
+def cautions(purpose: str) -> tuple[str, ...]:
+    """The worksheet's cautions, the first worded for the decision the document is for."""
+    decision = _RESPONSIBLE_FOR.get(purpose, _RESPONSIBLE_FOR[PURPOSE_PRE_LIST])
+    first = (
+        CAUTION_FIGURES + f" The people who sign this worksheet remain responsible for {decision}."
+    )
+    return (first, *CAUTIONS[1:])
+
+
+SECTION_PLAN = "The plan, case by case"
+PLAN_INTRO = (
+    "Time runs from the end of the prep. Bars: the prep wet, the drape pocket's vapour "
+    "above its margin of the LFL, the site's oxidant above the oxygen-enriched limit; an "
+    "arrow where a bar runs past the axis, with the time it ends. Marks: D drapes on, S oxygen stopped, A first "
+    "activation, as planned; ✗ a planned time that comes too early, with the earliest safe "
+    "time (▲) beside it."
+)
+PLAN_ROW_WET = "prep wet"
+PLAN_ROW_POCKET = "pocket > margin"
+PLAN_ROW_OXIDANT = "O₂ enriched"
+PLAN_MARK_DRAPE, PLAN_MARK_STOP, PLAN_MARK_ACTIVATE = "D", "S", "A"
+PLAN_TOO_EARLY, PLAN_EARLIEST = "✗", "▲"
+PLAN_NO_CASES = "No cases on the list: the plan is the room's own checks below."
+
+
+def plan_axis_label(unit: str) -> str:
+    return f"time from the end of the prep [{unit}]"
+
+
+def plan_case_label(case_id: str, procedure: str) -> str:
+    return f"Case {case_id}: {procedure}"
+
+
+def plan_too_early(what: str, planned: str, earliest: str) -> str:
+    """ "drapes at 3 min: too early, no earlier than 18 min"."""
+    return f"{what} at {planned}: too early, no earlier than {earliest}"
+
+
+def plan_stop_too_late(planned_before: str, needed_before: str) -> str:
+    """ "oxygen stop 1 min before the first activation: too late, at least 6.5 min before"."""
+    return (
+        f"oxygen stop {planned_before} before the first activation: too late, "
+        f"at least {needed_before} before it"
+    )
+
+
+PLAN_WHAT = {"drape": "drapes", "stop": "oxygen stop", "activate": "first activation"}
+
+SECTION_ACTIONS = "Actions"
+ACTIONS_INTRO = (
+    "Each action once, worst finding first; tick it when it is in place. The numbers in "
+    "brackets are the findings it answers."
+)
+NO_ACTIONS = "No actions: no finding asks for one."
+
+
+def action_answers(numbers: Sequence[int]) -> str:
+    """ "(findings 1, 4)"."""
+    word = "finding" if len(numbers) == 1 else "findings"
+    return f"({word} {', '.join(str(n) for n in numbers)})"
+
+
+def finding_actions(numbers: Sequence[int]) -> str:
+    """The actions a finding asks for, by their numbers in the action list."""
+    if not numbers:
+        return "none"
+    word = "action" if len(numbers) == 1 else "actions"
+    return f"{word} {', '.join(str(n) for n in numbers)} of the list"
+
+
+CARD_ACTIONS = "Actions"
+
+
+def finding_body(
+    *, subject: str, value_label: str, value: str, why: str, source: str, actions: str
+) -> str:
+    """A finding's card in one paragraph: what, the value, why, the source, the actions."""
+    parts = [f"{subject}.", f"{value_label}: {value}."]
+    if why:
+        parts.append(f"Why: {why}")
+    parts += [f"Source: {source}.", f"Actions: {actions}."]
+    return " ".join(parts)
+
+
+def labelled_line(title: str, pairs: Sequence[Sequence[str]]) -> str:
+    """ "On this case: Site head-neck; Ignition sources monopolar electrosurgery"."""
+    return f"{title}: " + "; ".join(" ".join(pair) for pair in pairs) + "."
+
+
+def card_source(source: str, flag: str, rule: str) -> str:
+    """ "NFPA 99 (published) · rule oxygen.enriched-at-activation"."""
+    return f"{source} ({flag}) · rule {rule}"
+
+
+VALUE_LABELS = {"measured": "Measured", "planned": "Planned", "computed": "Computed"}
+LIMIT_LABELS = {"threshold": "Threshold", "planned": "Planned", "computed": "Computed"}
+
+
+def value_label(kind: str) -> str:
+    """The head of a finding's value: measured only for a reading a person took."""
+    return VALUE_LABELS.get(kind, "Computed")
+
+
+def limit_label(kind: str) -> str:
+    return LIMIT_LABELS.get(kind, "Threshold")
+
+
+def value_against(value: str, value_kind: str, comparison: str, limit: str, limit_kind: str) -> str:
+    """ "37.1 %, above the threshold 23.5 %"; "2.95 h, after the planned 6 min"."""
+    if not limit:
+        return value
+    if limit_kind == "planned":  # planned limits are times
+        later = _LATER.get(comparison, comparison)
+        return f"{value}, {later} the planned {limit}"
+    return f"{value}, {comparison} the {limit_label(limit_kind).lower()} {limit}"
+
+
+_LATER = {
+    "above": "later than",
+    "at or above": "at or later than",
+    "below": "earlier than",
+    "at or below": "at or earlier than",
+}
+
+
+def triad_in_words(oxidant: bool, fuel: bool, ignition: bool) -> str:
+    """ "oxidant ✓ · fuel ✓ · ignition source ✗ (not all three: no fire path as planned)"."""
+    marks = " · ".join(
+        f"{name} {'✓' if on else '✗'}"
+        for name, on in (("oxidant", oxidant), ("fuel", fuel), ("ignition source", ignition))
+    )
+    if oxidant and fuel and ignition:
+        return f"Fire triad: {marks}: all three can meet at the site."
+    return f"Fire triad: {marks}: not all three as planned."
+
+
+GLOSSARY_HEADING = "Words used here"
+GLOSSARY = (
+    ("MIE", "minimum ignition energy: the least spark energy that ignites a vapour"),
+    ("LFL", "lower flammable limit: the least vapour in air that can burn"),
+    ("LOI", "limiting oxygen index: the least oxygen in which a material keeps burning"),
+    ("RH", "relative humidity"),
+    ("O₂ enriched", "oxidant above the oxygen-enriched limit of the rules"),
+    ("N₂O", "nitrous oxide, an oxidant like oxygen"),
+)
+FLAG_MEANINGS = {
+    "published": "taken from the standard, handbook or paper named beside it",
+    "memory": "recalled from the source named beside it, not yet checked against it",
+    "to confirm": "recalled from the source named beside it, not yet checked against it",
+    "common practice": "a fact of the trade, not from one source",
+    "assumption": "a modelling choice of ignite, stated so that it can be challenged",
+}
+
+
+def flags_intro(meanings: str) -> str:
+    return f"Each source carries a flag of where its value comes from: {meanings}."
+
+
+def flag_meaning(flag: str) -> str:
+    return f"{flag}: {FLAG_MEANINGS.get(flag, 'provenance as stated in the rule file')}"
+
+
+SIGN_OFF_SUMMARY_PROMPT = "Decision on this audit (tick one):"
+SIGN_OFF_SUMMARY_DECISIONS = (
+    "The rooms may be used as they are",
+    "The rooms may be used once the actions in their worksheets are in place",
+    "The rooms marked HIGH are not to be used until their actions are done",
+)
+
+
+# what each result a check reads is, in plain words (the rules appendix, `ignite rules`)
+RESULT_WORDS = {
+    "case.oxidant_at_activation": "the site's oxidant at the first activation",
+    "case.open_delivery_oxidant": "the site's oxidant while open delivery flows",
+    "case.triad_complete": "a complete fire triad at the site",
+    "case.draping_after": "the planned draping time",
+    "case.first_activation_after": "the planned first activation",
+    "case.drying_time": "the computed drying time of the prep",
+    "case.drying_time_hair_or_pooling": "the computed drying time of prep in hair or pooled",
+    "case.flammable_draping_after": "the planned draping time over a flammable prep",
+    "case.pooled_flammable_prep": "flammable prep planned to pool",
+    "case.pocket_peak": "the drape pocket's peak vapour, as a share of the LFL",
+    "case.enriched_materials_burning": "materials that keep burning at the site's oxidant",
+    "case.site_mie_with_charged_materials": "the site's MIE, with materials that hold charge",
+    "charge.body_voltage": "the body voltage of a person or trolley",
+    "charge.spark_energy": "the spark energy of a person or trolley",
+    "charge.system_resistance": "person + footwear + floor resistance",
+    "room.lowest_mie": "the lowest MIE of the fuels at the sites",
+    "floor.lowest_reading": "the lowest floor reading",
+    "floor.highest_reading": "the highest floor reading",
+    "floor.mean_reading": "the average floor reading",
+    "floor.shock_current": "the shock current through a person",
+}
+
+
+def result_words(name: str) -> str:
+    """A result's plain words; its name where none are written yet."""
+    return RESULT_WORDS.get(name, name)
+
 
 # appendices
 RULES_HEADERS = ("Rule\nkind", "Title", "Threshold", "Source", "Flag")

@@ -13,10 +13,13 @@ drawn; their axes, tick labels and line labels are decided here too.
 
 from __future__ import annotations
 
+import dataclasses
 import math
-from collections.abc import Sequence
+import re
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 
+from ignite.findings.cases import round_up
 from ignite.records.results import (
     SEVERITIES,
     CaseResult,
@@ -29,6 +32,7 @@ from ignite.records.results import (
     RuleRow,
     severity_rank,
 )
+from ignite.report.worksheet.plan import Action, Plan, build_plan, list_actions
 from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
 from ignite.wording.numbers import (
@@ -76,6 +80,10 @@ class FindingView:
     flag: str
     detail: str
     mitigations: tuple[str, ...]
+    # plain words (page 1's action list carries the mitigations, once each)
+    value_label: str = ""  # Computed | Measured | Planned
+    value_text: str = ""  # "37.1 %, above the threshold 23.5 %"
+    actions: tuple[int, ...] = ()  # numbers in the action list
 
 
 @dataclass(frozen=True)
@@ -179,6 +187,14 @@ class WorksheetView:
     input_name: str
     input_lines: tuple[str, ...]
     footer: Footer
+    # the document's purpose and page 1 (issue 13)
+    purpose: str = ""
+    sign_off_prompt: str = ""
+    actions: tuple[Action, ...] = ()
+    plan: Plan | None = None
+    glossary: tuple[tuple[str, str], ...] = ()
+    flags: tuple[str, ...] = ()  # each provenance flag used, with its meaning
+    preparation_methods: tuple[str, ...] = ()  # per preparation, in the methods appendix
 
 
 # --------------------------------------------------------------------------- build
@@ -193,15 +209,18 @@ def build_view(
     """Everything the worksheet prints, as strings (and chart specifications)."""
     room = results.room
     enriched = results.oxygen_enriched_limit_fraction
+    ordered = _worst_first(results.findings)
+    actions, per_finding = list_actions(ordered)
     findings = tuple(
-        _finding_view(number, finding)
-        for number, finding in enumerate(_worst_first(results.findings), start=1)
+        _finding_view(number, finding, numbers)
+        for number, (finding, numbers) in enumerate(zip(ordered, per_finding, strict=True), 1)
     )
-    verdict, worst = _verdict(results.findings)
+    verdict, worst = _verdict(results.findings, room.purpose)
+    prompt, decisions = say.sign_off(room.purpose)
     people_and_trolleys = (*results.people, *results.trolleys)
-    return WorksheetView(
+    view = WorksheetView(
         title=say.worksheet_title(room.id),
-        heading=say.WORKSHEET_HEADING,
+        heading=say.document_heading(room.purpose),
         subheading=say.worksheet_subheading(room.name, room.id),
         author=room.assessor,
         subject=say.worksheet_subject(room.name, results.input_sha256),
@@ -236,10 +255,11 @@ def build_view(
         voltage_chart=_voltage_chart(results),
         preparations=_preparations_table(results.preparations),
         preparation_notes=_preparation_notes(results.preparations),
+        preparation_methods=_preparation_methods(results.preparations),
         environment=_environment_table(results),
-        cautions=say.CAUTIONS,
+        cautions=say.cautions(room.purpose),
         sign_off_roles=say.SIGN_OFF_ROLES,
-        sign_off_decisions=say.SIGN_OFF_DECISIONS,
+        sign_off_decisions=decisions,
         rules=Table(
             headers=say.RULES_HEADERS,
             rows=tuple(
@@ -262,6 +282,50 @@ def build_view(
             tool_version=results.tool_version,
             rules_digest=results.rules_digest,
         ),
+        purpose=room.purpose,
+        sign_off_prompt=prompt,
+        actions=actions,
+        plan=_with_ticks(build_plan(results)),
+        flags=tuple(
+            say.flag_meaning(flag)
+            for flag in _in_order([f.flag for f in findings] + [r.flag for r in rules])
+        ),
+    )
+    return dataclasses.replace(view, glossary=_glossary(view))
+
+
+def _with_ticks(found: Plan | None) -> Plan | None:
+    if found is None:
+        return None
+    axis = linear_axis(found.axis_label, 0.0, found.axis_high_s / found.scale)
+    return dataclasses.replace(found, ticks=axis.ticks)
+
+
+def _in_order(items: Sequence[str]) -> list[str]:
+    return list(dict.fromkeys(item for item in items if item))
+
+
+def _strings(value: object) -> Iterator[str]:
+    """Every string a view holds (its words, to find the abbreviations it uses)."""
+    if isinstance(value, str):
+        yield value
+    elif dataclasses.is_dataclass(value) and not isinstance(value, type):
+        for item in dataclasses.fields(value):
+            yield from _strings(getattr(value, item.name))
+    elif isinstance(value, tuple | list):
+        for item in value:
+            yield from _strings(item)
+
+
+def _glossary(view: WorksheetView) -> tuple[tuple[str, str], ...]:
+    """The abbreviations the worksheet uses, each with its meaning."""
+    text = " ".join(_strings(view))
+    if view.plan is not None:  # the timelines' row names are drawn, not held as strings
+        text += f" {say.PLAN_ROW_WET} {say.PLAN_ROW_POCKET} {say.PLAN_ROW_OXIDANT}"
+    return tuple(
+        (term, meaning)
+        for term, meaning in say.GLOSSARY
+        if re.search(rf"(?<![\w]){re.escape(term)}(?![\w])", text)
     )
 
 
@@ -290,11 +354,11 @@ def _tally(findings: Sequence[Finding]) -> str:
     return say.findings_tally(_counts(findings))
 
 
-def _verdict(findings: Sequence[Finding]) -> tuple[str, str | None]:
+def _verdict(findings: Sequence[Finding], purpose: str) -> tuple[str, str | None]:
     """One line in words, and the worst severity (None when there are no findings)."""
     counts = _counts(findings)
     worst = next((s for s in SEVERITIES if counts[s]), None)
-    return say.verdict(counts), worst
+    return say.purpose_verdict(counts, purpose), worst
 
 
 def _amounts(finding: Finding) -> tuple[str, str]:
@@ -319,9 +383,14 @@ def _amounts(finding: Finding) -> tuple[str, str]:
     return format_si(measured.value, measured.unit), format_si(limit.value, limit.unit)
 
 
-def _finding_view(number: int, finding: Finding) -> FindingView:
+def _finding_view(number: int, finding: Finding, actions: tuple[int, ...] = ()) -> FindingView:
     measured, limit = _amounts(finding)
     return FindingView(
+        value_label=say.value_label(finding.value_kind),
+        value_text=say.value_against(
+            measured, finding.value_kind, finding.comparison, limit, finding.limit_kind
+        ),
+        actions=actions,
         number=number,
         severity=finding.severity,
         severity_word=say.severity_word(finding.severity),
@@ -370,9 +439,13 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
                 "",
             )
         )
-    rows.append((say.washout_to(limit_text), format_duration(case.washout_s), "", ""))
+    # one value per quantity: the washout as the stop-oxygen action gives it (rounded up)
+    rows.append((say.washout_to(limit_text), format_duration(round_up(case.washout_s)), "", ""))
     if case.stop_before_activation_s is not None:
-        needed = case.required_stop_s if case.required_stop_s is not None else case.washout_s
+        needed = round_up(
+            case.required_stop_s if case.required_stop_s is not None else case.washout_s
+        )
+        assert needed is not None  # round_up keeps a number a number
         planned, needed_text = format_against_limit(case.stop_before_activation_s, needed, "s")
         rows.append(
             (
@@ -447,26 +520,27 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
                 "",
             )
         )
-    if case.draping_after_s is not None and case.safe_draping_after_s is not None:
-        planned, safe = format_against_limit(case.draping_after_s, case.safe_draping_after_s, "s")
+    safe_draping = round_up(case.safe_draping_after_s)  # as the drape action gives it
+    if case.draping_after_s is not None and safe_draping is not None:
+        planned, safe = format_against_limit(case.draping_after_s, safe_draping, "s")
         rows.append(
             (
                 say.DRAPES_PLANNED,
                 planned,
                 say.pocket_safe_if_after(safe),
                 _relation(
-                    case.safe_draping_after_s,
+                    safe_draping,
                     case.draping_after_s,
                     say.POCKET_TOO_EARLY,
                     say.POCKET_LATE_ENOUGH,
                 ),
             )
         )
-    elif case.safe_draping_after_s is not None:
+    elif safe_draping is not None:
         rows.append(
             (
                 say.SAFE_DRAPING_AFTER,
-                format_duration(case.safe_draping_after_s),
+                format_duration(safe_draping),
                 "",
                 "",
             )
@@ -802,12 +876,12 @@ def _preparations_table(preparations: Sequence[PreparationResult]) -> Table:
 
 
 def _preparation_notes(preparations: Sequence[PreparationResult]) -> tuple[str, ...]:
-    notes = []
-    for prep in preparations:
-        if prep.methods:
-            notes.append(say.preparation_methods(prep.id, prep.methods))
-        notes.extend(say.preparation_note(prep.id, note) for note in prep.notes)
-    return tuple(notes)
+    """What the reader should know of each preparation (its methods go to the appendix)."""
+    return tuple(say.preparation_note(p.id, note) for p in preparations for note in p.notes)
+
+
+def _preparation_methods(preparations: Sequence[PreparationResult]) -> tuple[str, ...]:
+    return tuple(say.preparation_methods(p.id, p.methods) for p in preparations if p.methods)
 
 
 def _environment_table(results: Results) -> Table:
@@ -1020,6 +1094,8 @@ def _oxygen_chart(case: CaseResult, enriched: float) -> Chart | None:
     points = _finite_points(case.oxygen_curve)
     if len(points) < 2:
         return None
+    if not case.oxygen_enriched and max(x for _, x in points) <= enriched:
+        return None  # the site never reaches the enriched limit: no chart of a flat line
     # The curve's clock starts when the oxygen stops (ignite/simulate/cases.py), so the first
     # activation falls at the planned stop-before-activation time.
     events = []

@@ -13,10 +13,12 @@ SHA-256, the tool version and the rules digest.
 from __future__ import annotations
 
 import calendar
+import dataclasses
 import hashlib
 import io
 import itertools
 import math
+import re
 import time
 from collections.abc import Callable, Sequence
 from datetime import date
@@ -49,6 +51,7 @@ from reportlab.platypus import (
 )
 
 from ignite.report.worksheet import model
+from ignite.report.worksheet.plan import Plan
 from ignite.wording import sentences as say
 
 FONT = "IgniteSans"
@@ -377,7 +380,35 @@ def _cell(text: str, style: ParagraphStyle, width: float) -> Any:
         and pdfmetrics.stringWidth(text, style.fontName, style.fontSize) <= width - 7
     ):
         return text
-    return _p(text, style)
+    return _p(breakable(text, style.fontName, style.fontSize, width - 7), style)
+
+
+_JOINTS = re.compile(r"(?<=[._/-])")  # an identifier or file name may break after . _ / -
+
+
+def breakable(text: str, font: str, size: float, width: float) -> str:
+    """`text` with each word too wide for `width` broken after its dots, dashes, underscores
+    or slashes, so that the wrapping never splits an identifier mid-name ("prep.wet-at-
+    draping" may break after "prep." or "wet-", never inside "draping"). A piece that is
+    itself too wide is left for the paragraph to split."""
+    lines = []
+    for line in text.split("\n"):
+        words = []
+        for word in line.split(" "):
+            if pdfmetrics.stringWidth(word, font, size) <= width:
+                words.append(word)
+                continue
+            pieces, current = [], ""
+            for piece in _JOINTS.split(word):
+                if current and pdfmetrics.stringWidth(current + piece, font, size) > width:
+                    pieces.append(current)
+                    current = piece
+                else:
+                    current += piece
+            pieces.append(current)
+            words.append("\n".join(pieces))
+        lines.append(" ".join(words))
+    return "\n".join(lines)
 
 
 def _pairs(table: model.Table, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
@@ -396,8 +427,16 @@ def _header(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
     story: list[Flowable] = [_p(view.heading, st["title"]), _p(view.subheading, st["subtitle"])]
-    rows = [[_p(k, st["cellbold"]), _p(v, st["cell"])] for k, v in view.header]
-    block = SplitTable(rows, colWidths=[28 * mm, width - 28 * mm], hAlign="LEFT")
+    pairs = list(view.header)
+    rows = []
+    for index in range(0, len(pairs), 2):
+        row: list[Any] = []
+        for key, value in pairs[index : index + 2]:
+            row += [_p(key, st["cellbold"]), _p(value, st["cell"])]
+        rows.append(row + [""] * (4 - len(row)))
+    label = 22 * mm
+    half = width / 2 - label
+    block = SplitTable(rows, colWidths=[label, half, label, half], hAlign="LEFT")
     block.setStyle(TableStyle(_table_style(header=False)))
     story.append(block)
     story.append(Spacer(1, 6))
@@ -440,44 +479,32 @@ def _header(
 def _finding_card(
     finding: model.FindingView, width: float, st: dict[str, ParagraphStyle]
 ) -> Flowable:
-    label_width = 24 * mm
-    limit = finding.limit
-    if finding.comparison:
-        limit = say.limit_with_comparison(finding.limit, finding.comparison)
     head = say.finding_heading(
         finding.number, finding.severity_mark, finding.severity_word, finding.title
     )
+    body = say.finding_body(
+        subject=finding.subject,
+        value_label=finding.value_label or say.CARD_MEASURED,
+        value=finding.value_text or finding.measured,
+        why=finding.detail,
+        source=say.card_source(finding.source, finding.flag, finding.rule),
+        actions=say.finding_actions(finding.actions),
+    )
     rows: list[list[Any]] = [
-        [_p(head, st["cellbold"]), ""],
-        [_p(say.CARD_RULE, st["cellbold"]), _p(finding.rule, st["cell"])],
-        [_p(say.CARD_SUBJECT, st["cellbold"]), _p(finding.subject, st["cell"])],
-        [_p(say.CARD_MEASURED, st["cellbold"]), _p(finding.measured, st["cell"])],
+        [_p(head, st["cellbold"])],
+        [_p(body, st["cell"])],
     ]
-    if finding.limit:
-        rows.append([_p(say.CARD_LIMIT, st["cellbold"]), _p(limit, st["cell"])])
-    if finding.detail:
-        rows.append([_p(say.CARD_WHY, st["cellbold"]), _p(finding.detail, st["cell"])])
-    source = say.source_with_flag(finding.source, finding.flag)
-    rows.append([_p(say.CARD_SOURCE, st["cellbold"]), _p(source, st["cell"])])
-    for index, mitigation in enumerate(finding.mitigations):
-        rows.append(
-            [
-                _p(say.CARD_MITIGATIONS if index == 0 else "", st["cellbold"]),
-                _p(mitigation, st["tick"], bulletText=say.TICK_BOX),
-            ]
-        )
-    card = SplitTable(rows, colWidths=[label_width, width - label_width], hAlign="LEFT")
+    card = SplitTable(rows, colWidths=[width], hAlign="LEFT")
     weight = {"high": 1.8, "medium": 1.2}.get(finding.severity, 0.7)
     card.setStyle(
         TableStyle(
             [
                 *_table_style(),
-                ("SPAN", (0, 0), (-1, 0)),
                 ("BOX", (0, 0), (-1, -1), weight, colors.black),
             ]
         )
     )
-    return KeepTogether([card, Spacer(1, 5)])
+    return KeepTogether([card, Spacer(1, 4)])
 
 
 def _findings(
@@ -492,19 +519,12 @@ def _findings(
 
 
 def _triad(case: model.CaseView, width: float, st: dict[str, ParagraphStyle]) -> Flowable:
-    cells = []
-    for element in case.triad:
-        cells.append(
-            [
-                _p(say.triad_element(element.present, element.name), st["cellbold"]),
-                _p(element.why, st["cell"]),
-            ]
-        )
-    row = cells
-    triad = SplitTable([row], colWidths=[width / 3] * 3, hAlign="LEFT")
-    style = _table_style(header=False)
-    triad.setStyle(TableStyle(style))
-    return triad
+    """The triad's three sides in one paragraph, each with its mark and why."""
+    text = " · ".join(
+        f"{say.triad_element(element.present, element.name)} ({element.why})"
+        for element in case.triad
+    )
+    return _p(text, st["cell"])
 
 
 def _charts_row(
@@ -513,10 +533,10 @@ def _charts_row(
     if not charts:
         return None
     if len(charts) == 1:
-        return _chart_block(charts[0], width, 165, st)
+        return _chart_block(charts[0], width, 135, st)
     gap = 8
     half = (width - gap) / 2
-    row = [_chart_parts(c, half, 165, st) for c in charts]
+    row = [_chart_parts(c, half, 135, st) for c in charts]
     grid = Table([row], colWidths=[half + gap / 2, half + gap / 2], hAlign="LEFT")
     grid.setStyle(
         TableStyle(
@@ -553,7 +573,7 @@ def _cases(
                 ]
             )
         )
-        story.append(_pairs(model.Table((say.ON_THIS_CASE, ""), case.lists, (1.3, 3.0)), width, st))
+        story.append(_p(say.labelled_line(say.ON_THIS_CASE, case.lists), st["cell"]))
         story.append(Spacer(1, 4))
         story.append(_grid(case.quantities, width, st))
         story += [_p(note, st["small"], bulletText="–") for note in case.notes]
@@ -597,7 +617,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
         story += [_p(view.floor_readings_note, st["small"]), Spacer(1, 2)]
     story.append(KeepTogether([readings]) if len(view.floor_readings.rows) <= 15 else readings)
     if view.floor_chart is not None:
-        story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 170, st)]
+        story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 140, st)]
 
     story += [
         CondPageBreak(50 * mm),
@@ -610,7 +630,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
     if view.voltage_chart is not None:
         # a legend of more than three rows takes its room from below, not from the plot
         rows = len(_legend_rows(view.voltage_chart, width - 50))
-        height = 215 + 10 * max(0, rows - 3)
+        height = 185 + 10 * max(0, rows - 3)
         story += [Spacer(1, 5), _chart_block(view.voltage_chart, width, height, st)]
 
     story += [
@@ -619,7 +639,10 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
         _grid(view.preparations, width, st),
     ]
     story += [_p(note, st["small"], bulletText="–") for note in view.preparation_notes]
-    story += [CondPageBreak(35 * mm), Spacer(1, 6), _pairs(view.environment, half, st)]
+    story += [
+        Spacer(1, 6),
+        _p(say.labelled_line(view.environment.headers[0], view.environment.rows), st["cell"]),
+    ]
     return story
 
 
@@ -642,7 +665,7 @@ def _cautions_and_sign_off(
         KeepTogether(
             [
                 _p(say.SECTION_SIGN_OFF, st["h2"]),
-                _p(say.SIGN_OFF_PROMPT, st["body"]),
+                _p(view.sign_off_prompt or say.SIGN_OFF_PROMPT, st["body"]),
                 *decisions,
                 Spacer(1, 5),
                 signatures,
@@ -677,6 +700,7 @@ def _appendix(
         CondPageBreak(40 * mm),
         _p(say.APPENDIX_METHODS, st["h2"]),
         _grid(view.methods, width, st),
+        *[_p(note, st["small"], bulletText="–") for note in view.preparation_methods],
         CondPageBreak(40 * mm),
         _p(say.APPENDIX_ROOM_FILE, st["h2"]),
         _p(say.room_file_caption(view.input_name, view.footer.input_sha256), st["small"]),
@@ -687,6 +711,193 @@ def _appendix(
     else:
         story.append(_p(say.EMPTY_FILE, st["body"]))
     return story
+
+
+# --------------------------------------------------------------------------- page 1: the plan
+
+PLAN_LABEL_WIDTH = 62.0  # [pt] the row names at the left of the timelines
+PLAN_ROW = 8.0  # [pt] one bar's row
+PLAN_CASE_GAP = 9.0  # [pt] between two cases
+PLAN_CASES_A_BLOCK = 8  # cases drawn on one axis: a block always fits a page
+PLAN_FILLS = {  # grey levels: the row's name, not its shade, says what a bar is
+    "wet": colors.Color(0.55, 0.55, 0.55),
+    "pocket": colors.Color(0.35, 0.35, 0.35),
+    "oxidant": colors.Color(0.72, 0.72, 0.72),
+}
+
+
+def _plan_drawing(plan: Plan, width: float) -> Drawing:
+    """The cases' timelines on one shared axis, one block of three bars a case."""
+    left, right = PLAN_LABEL_WIDTH, width - 30.0
+    per_case = 19.0 + 3 * PLAN_ROW + 9.0
+    axis_room = 22.0
+    height = len(plan.cases) * (per_case + PLAN_CASE_GAP) + axis_room
+    drawing = Drawing(width, height)
+    drawing.initialFontName = FONT  # the renderer's starting font; the default is not embedded
+    span = right - left
+
+    def x_of(seconds: float) -> float:
+        return left + min(max(seconds, 0.0), plan.axis_high_s) / plan.axis_high_s * span
+
+    top = height
+    for case in plan.cases:
+        top -= PLAN_CASE_GAP
+        drawing.add(
+            String(0, top - 8, fit(case.label, BOLD, 7.5, width), fontName=BOLD, fontSize=7.5)
+        )
+        rows_top = top - 20
+        rows = (
+            (say.PLAN_ROW_WET, case.wet, "wet"),
+            (say.PLAN_ROW_POCKET, case.pocket, "pocket"),
+            (say.PLAN_ROW_OXIDANT, case.oxidant, "oxidant"),
+        )
+        for index, (name, spans, kind) in enumerate(rows):
+            y = rows_top - (index + 1) * PLAN_ROW
+            drawing.add(String(4, y + 1.8, name, fontName=FONT, fontSize=6.3))
+            drawing.add(Line(left, y, right, y, strokeColor=FAINT, strokeWidth=0.4))
+            for piece in spans:
+                x0, x1 = x_of(piece.start), x_of(piece.end)
+                drawing.add(
+                    Rect(
+                        x0,
+                        y + 1.2,
+                        max(x1 - x0, 0.8),
+                        PLAN_ROW - 2.4,
+                        fillColor=PLAN_FILLS[kind],
+                        strokeColor=colors.black,
+                        strokeWidth=0.3,
+                    )
+                )
+                if piece.open_end:
+                    drawing.add(
+                        Polygon(
+                            [x1, y + 0.6, x1 + 5, y + PLAN_ROW / 2, x1, y + PLAN_ROW - 0.6],
+                            fillColor=colors.black,
+                            strokeColor=None,
+                        )
+                    )
+                    if piece.text:
+                        drawing.add(
+                            String(x1 + 6, y + 1.8, piece.text, fontName=FONT, fontSize=6.3)
+                        )
+        bottom = rows_top - 3 * PLAN_ROW
+        for mark in case.marks:
+            x = x_of(mark.at)
+            drawing.add(
+                Line(
+                    x,
+                    bottom,
+                    x,
+                    rows_top,
+                    strokeColor=colors.black,
+                    strokeWidth=1.1 if mark.wrong else 0.6,
+                    strokeDashArray=None if mark.wrong else (2, 1.5),
+                )
+            )
+            text = f"{mark.letter}{say.PLAN_TOO_EARLY if mark.wrong else ''}"
+            drawing.add(
+                String(x, rows_top + 1.2, text, fontName=BOLD, fontSize=7, textAnchor="middle")
+            )
+            if mark.wrong and mark.safe_at is not None:
+                inside = mark.safe_at <= plan.axis_high_s
+                sx = x_of(mark.safe_at) if inside else right
+                label = f"{say.PLAN_EARLIEST}{mark.letter} {mark.safe_text}"
+                if not inside:
+                    label += " →"
+                drawing.add(
+                    String(
+                        sx,
+                        bottom - 8,
+                        label,
+                        fontName=FONT,
+                        fontSize=6.3,
+                        textAnchor="middle" if inside else "end",
+                    )
+                )
+        top = bottom - 9.0
+    # the shared axis
+    axis_y = axis_room - 6
+    drawing.add(Line(left, axis_y, right, axis_y, strokeColor=colors.black, strokeWidth=0.6))
+    high_units = plan.axis_high_s / plan.scale
+    for value, text in plan.ticks:
+        if value > high_units + 1e-9:
+            continue
+        x = left + value / high_units * span
+        drawing.add(Line(x, axis_y, x, axis_y - 2.5, strokeColor=colors.black, strokeWidth=0.5))
+        drawing.add(String(x, axis_y - 9, text, fontName=FONT, fontSize=6.3, textAnchor="middle"))
+    drawing.add(
+        String(right, axis_y - 17, plan.axis_label, fontName=FONT, fontSize=6.5, textAnchor="end")
+    )
+    return drawing
+
+
+def _plan(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]) -> list[Flowable]:
+    if view.plan is None:
+        return []
+    story: list[Flowable] = [
+        _p(say.SECTION_PLAN, st["h2"]),
+        _p(say.PLAN_INTRO, st["small"]),
+    ]
+    # a long list is drawn in blocks that each fit a page, each with the shared axis
+    cases = view.plan.cases
+    for start in range(0, len(cases), PLAN_CASES_A_BLOCK):
+        block = dataclasses.replace(view.plan, cases=cases[start : start + PLAN_CASES_A_BLOCK])
+        story.append(_plan_drawing(block, width))
+    notes = [
+        f"{case.label}: " + "; ".join(m.note for m in case.marks if m.note)
+        for case in view.plan.cases
+        if any(m.note for m in case.marks)
+    ]
+    story += [_p(note, st["small"], bulletText=say.PLAN_TOO_EARLY) for note in notes]
+    return story
+
+
+def _actions(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    story: list[Flowable] = [_p(say.SECTION_ACTIONS, st["h2"])]
+    if not view.actions:
+        return [*story, _p(say.NO_ACTIONS, st["body"])]
+    story.append(_p(say.ACTIONS_INTRO, st["small"]))
+    rows = [
+        [
+            _p(say.TICK_BOX, st["cell"]),
+            _p(f"{action.number}.", st["cellbold"]),
+            _p(f"{action.text} {say.action_answers(action.findings)}", st["cell"]),
+        ]
+        for action in view.actions
+    ]
+    table = SplitTable(rows, colWidths=[12, 20, width - 32], hAlign="LEFT")
+    table.setStyle(
+        TableStyle(
+            [
+                ("FONTNAME", (0, 0), (-1, -1), FONT),
+                ("VALIGN", (0, 0), (-1, -1), "TOP"),
+                ("LEFTPADDING", (0, 0), (-1, -1), 1),
+                ("RIGHTPADDING", (0, 0), (-1, -1), 2),
+                ("TOPPADDING", (0, 0), (-1, -1), 1),
+                ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+                ("LINEBELOW", (0, 0), (-1, -1), 0.3, FAINT),
+            ]
+        )
+    )
+    story.append(table)
+    return story
+
+
+def _glossary(
+    view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    if not view.glossary and not view.flags:
+        return []
+    words = "; ".join(f"{term}: {meaning}" for term, meaning in view.glossary)
+    flags = "; ".join(view.flags)
+    parts = [_p(say.GLOSSARY_HEADING, st["cellbold"])]
+    if words:
+        parts.append(_p(words, st["small"]))
+    if flags:
+        parts.append(_p(say.flags_intro(flags), st["small"]))
+    return [Spacer(1, 4), KeepTogether(parts)]
 
 
 # --------------------------------------------------------------------------- charts
@@ -1048,6 +1259,10 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     width = doc.width
     story: list[Flowable] = []
     story += _header(view, width, st)
+    story += _plan(view, width, st)
+    story += _actions(view, width, st)
+    story += _glossary(view, width, st)
+    story += [CondPageBreak(60 * mm)]
     story += _findings(view, width, st)
     story += _cases(view, width, st)
     story += _room(view, width, st)
