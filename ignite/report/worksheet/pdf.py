@@ -623,6 +623,36 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
     return story
 
 
+def _electrical(
+    view: model.ElectricalView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    """The patient environment's electrical section: supply, bonding, equipment, microshock."""
+    story: list[Flowable] = [
+        CondPageBreak(60 * mm),
+        _p(say.SECTION_ELECTRICAL, st["h2"]),
+        _p(view.intro, st["body"]),
+        _p(view.caution, st["small"]),
+        Spacer(1, 4),
+    ]
+    if view.supply is not None:
+        story += [_pairs(view.supply, width * 0.6, st), Spacer(1, 5)]
+    story += [_p(view.bonding_heading, st["h3"]), _grid(view.bonding, width, st), Spacer(1, 5)]
+    story += [
+        CondPageBreak(30 * mm),
+        _p(say.HEADING_EQUIPMENT, st["h3"]),
+        _grid(view.equipment, width, st),
+        Spacer(1, 5),
+        CondPageBreak(30 * mm),
+        _p(say.HEADING_MICROSHOCK, st["h3"]),
+        _grid(view.cases, width, st),
+    ]
+    if view.cases.rows:
+        story.append(_p(view.basis, st["small"]))
+    story += [_p(note, st["small"], bulletText="–") for note in view.notes]
+    story.append(Spacer(1, 8))
+    return story
+
+
 def _cautions_and_sign_off(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
@@ -1049,8 +1079,12 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     story: list[Flowable] = []
     story += _header(view, width, st)
     story += _findings(view, width, st)
+    if view.electrical is not None and view.electrical.leads:
+        story += _electrical(view.electrical, width, st)
     story += _cases(view, width, st)
     story += _room(view, width, st)
+    if view.electrical is not None and not view.electrical.leads:
+        story += _electrical(view.electrical, width, st)
     story += _cautions_and_sign_off(view, width, st)
     story += _appendix(view, width, st)
     doc.build(story, canvasmaker=_canvas_maker(view))
