@@ -176,7 +176,10 @@ def _cardiac_items(scope: Scope, single_fault: bool) -> Iterator[Item]:
             ),
             "touch_current": format_si(case.touch_cardiac_current_A, "A"),
             "microshock_advice": sentences.microshock_advice(
-                total, limit, case.largest_device, case.largest_device_A
+                total,
+                limit,
+                case.worst_fault_device if single_fault else case.largest_device,
+                case.worst_fault_device_A if single_fault else case.largest_device_A,
             ),
             "counted_at_limit": sentences.counted_at_limit(case.counted_at_limit),
         }

@@ -251,6 +251,8 @@ class CardiacCaseResult:
     cardiac_current_single_fault_A: float | None
     largest_device: str = ""  # the device with the largest patient leakage
     largest_device_A: float = 0.0
+    worst_fault_device: str = ""  # the device whose single fault gives the largest sum
+    worst_fault_device_A: float = 0.0  # its current in that fault
 
 
 @dataclass(frozen=True)

@@ -192,9 +192,12 @@ def _case(
     # one fault at a time: in a device's patient circuit, or in its protective earth
     fault_total = max(pl_fault + touch_current, pl_normal + touch_fault_current) if direct else None
     largest, largest_current = "", 0.0
-    for device, (normal, _, _) in zip(connected, patient, strict=True):
+    faulted, faulted_current, rise = "", 0.0, -1.0
+    for device, (normal, fault, _) in zip(connected, patient, strict=True):
         if normal > largest_current or not largest:
             largest, largest_current = device.id, normal
+        if fault - normal > rise:
+            faulted, faulted_current, rise = device.id, fault, fault - normal
     return CardiacCaseResult(
         case=case.case,
         procedure=procedure,
@@ -213,4 +216,6 @@ def _case(
         cardiac_current_single_fault_A=fault_total,
         largest_device=largest,
         largest_device_A=largest_current if math.isfinite(largest_current) else 0.0,
+        worst_fault_device=faulted,
+        worst_fault_device_A=faulted_current,
     )
