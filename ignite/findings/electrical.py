@@ -142,19 +142,20 @@ def _cases(scope: Scope) -> Iterator[tuple[CardiacCaseResult, ElectricalResult]]
 
 @result("electrical.non_cf_on_cardiac_path", "flag")
 def _non_cf(scope: Scope) -> Iterator[Item]:
+    """One item per case with a direct cardiac path and B or BF devices connected."""
     for case, found in _cases(scope):
-        devices = {device.id: device for device in found.equipment}
-        for name in case.non_cf_connected:
-            device = devices[name]
-            context = _device_context(device) | {
-                "cardiac_path": sentences.CARDIAC_PATH_WORDS.get(
-                    case.cardiac_path, case.cardiac_path
-                ),
-                "non_cf_advice": sentences.non_cf_advice(
-                    name, device.applied_part, case.cardiac_path
-                ),
-            }
-            yield Item(sentences.non_cf_subject(case.case, case.procedure, name), True, context)
+        if not case.non_cf_connected:
+            continue
+        parts = {device.id: device.applied_part for device in found.equipment}
+        devices = sentences.devices_with_applied_parts(
+            [(name, parts.get(name, "")) for name in case.non_cf_connected]
+        )
+        context = {
+            "devices": devices,
+            "cardiac_path": sentences.CARDIAC_PATH_WORDS.get(case.cardiac_path, case.cardiac_path),
+            "non_cf_advice": sentences.non_cf_advice(devices, case.cardiac_path),
+        }
+        yield Item(sentences.cardiac_subject(case.case, case.procedure), True, context)
 
 
 def _cardiac_items(scope: Scope, single_fault: bool) -> Iterator[Item]:

@@ -1180,10 +1180,6 @@ def cardiac_subject(case: str, procedure: str) -> str:
     return f"case {case}: {procedure}" if procedure else f"case {case}"
 
 
-def non_cf_subject(case: str, procedure: str, device: str) -> str:
-    return f"{cardiac_subject(case, procedure)} · {device}"
-
-
 def bonding_fault_current(
     point: str, reading: float, fault_current: float, microshock: float, impedance: float
 ) -> str:
@@ -1231,12 +1227,23 @@ def leakage_withdraw(device: str) -> str:
     )
 
 
-def non_cf_advice(device: str, applied_part: str, cardiac_path: str) -> str:
+DEVICES_SHOWN = 10
+"""Devices named in one finding before "… and N more"."""
+
+
+def devices_with_applied_parts(devices: Sequence[tuple[str, str]]) -> str:
+    """ "pump-2 (BF), esu-1 (B)", cut after DEVICES_SHOWN with "… and N more"."""
+    named = [f"{name} ({part})" for name, part in devices[:DEVICES_SHOWN]]
+    more = len(devices) - len(named)
+    return ", ".join(named) + (f" … and {more} more" if more > 0 else "")
+
+
+def non_cf_advice(devices: str, cardiac_path: str) -> str:
     path = CARDIAC_PATH_WORDS.get(cardiac_path, cardiac_path)
     return (
         f"While the {path} is in place, connect only type CF applied parts to this patient: "
-        f"replace {device} (type {applied_part}) with a CF-rated device, or keep its applied "
-        f"part off the patient and away from the {path}."
+        f"replace {devices} with CF-rated devices, or keep their applied parts off the patient "
+        f"and away from the {path}."
     )
 
 
