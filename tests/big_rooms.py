@@ -71,7 +71,34 @@ def room_data(
         if not prep:  # no drying solve: a long list of cases stays quick
             case["prep"] = "none"
         data["cases"].append(case)
+    data["electrical"] = _electrical(data["electrical"], [c["id"] for c in data["cases"]], spaces)
     return data
+
+
+def _electrical(base: dict[str, Any], case_ids: list[str], spaces: bool) -> dict[str, Any]:
+    """The sample's electrical section with every list at its limit and the longest names."""
+    devices = base["equipment"]
+    equipment = [
+        dict(devices[i % len(devices)], id=f"device-{i}", kind=long_name(f"kind{i}", spaces))
+        for i in range(LISTS["electrical.equipment"].most)
+    ]
+    connected = [d["id"] for d in equipment[: LISTS["electrical.cases[].connected"].most]]
+    return {
+        "supply": base["supply"],
+        "bonding": [
+            {
+                "point": long_name(f"point{i}", spaces),
+                "kind": "exposed" if i % 2 else "extraneous",
+                "resistance": f"{0.02 + (i % 30) / 100:.2f} Ω",
+            }
+            for i in range(LISTS["electrical.bonding"].most)
+        ],
+        "equipment": equipment,
+        "cases": [
+            {"case": case_id, "cardiac_path": "central-line", "connected": list(connected)}
+            for case_id in case_ids[: LISTS["electrical.cases"].most]
+        ],
+    }
 
 
 def write_room(path: Path, **kwargs: Any) -> Path:

@@ -66,6 +66,10 @@ def test_the_limits_used_are_the_loaders() -> None:
     assert len(data["trolleys"]) == LISTS["trolleys"].most
     assert len(data["cases"][0]["ignition_sources"]) == LISTS["cases[].ignition_sources"].most
     assert len(data["people"][0]["role"]) == TEXT_LENGTH
+    electrical = data["electrical"]
+    assert len(electrical["bonding"]) == LISTS["electrical.bonding"].most
+    assert len(electrical["equipment"]) == LISTS["electrical.equipment"].most
+    assert len(electrical["cases"][0]["connected"]) == LISTS["electrical.cases[].connected"].most
 
 
 def _long_floor_results(readings: tuple[float, ...], point_to_point: tuple[float, ...]):

@@ -632,6 +632,18 @@ def test_every_quantity_key_has_one_bound_with_a_reason() -> None:
         "cases[].air_speed",
         "cases[].draping_after",
         "cases[].first_activation_after",
+        # the electrical section (ignite/room/electrical.py)
+        "electrical.supply.transformer_rating",
+        *(
+            f"electrical.supply.insulation_monitor.{key}"
+            for key in ("alarm_setting", "tested_alarm_at", "insulation_reading")
+        ),
+        "electrical.bonding[].resistance",
+        *(
+            f"electrical.equipment[].{key}{condition}"
+            for key in ("earth_leakage", "touch_current", "patient_leakage")
+            for condition in ("", ".normal", ".single_fault")
+        ),
     }
     assert set(BOUNDS) == quantity_keys
     for key, bound in BOUNDS.items():

@@ -78,6 +78,7 @@ CSV_COLUMNS = (
     "change_since_previous",
     "tool_version",
     "rules_sha256",
+    "worst_electrical_finding",
 )
 """The register's CSV header. List cells: readings and point numbers joined by "; ",
 findings, warnings and problems one a line ("rule | severity | subject" for findings)."""
@@ -348,6 +349,13 @@ def _number(value: float | None) -> str:
     return "" if value is None else repr(float(value))
 
 
+def _finding_cell(key: FindingKey | None) -> str:
+    """A finding as the register's cells write it: "rule | severity | subject"."""
+    if key is None:
+        return ""
+    return _FINDING_SEPARATOR.join((key.rule, key.severity, key.subject))
+
+
 def register_csv(report: AuditReport) -> bytes:
     """The register as CSV (UTF-8, header row, one row per room file).
 
@@ -386,6 +394,7 @@ def register_csv(report: AuditReport) -> bytes:
             "change_since_previous": change.text if change else "",
             "tool_version": report.tool_version,
             "rules_sha256": report.rules_digest,
+            "worst_electrical_finding": _finding_cell(row.worst_electrical),
         }
         for severity in SEVERITIES:
             cells[severity] = str(row.count(severity)) if row.assessed else ""
@@ -425,6 +434,9 @@ def register_record(report: AuditReport) -> dict[str, Any]:
                 "warnings": list(row.warnings),
                 "problems": list(row.problems),
                 "change_since_previous": change_record(change) if change else None,
+                "worst_electrical_finding": None
+                if row.worst_electrical is None
+                else _finding_record(row.worst_electrical),
             }
         )
     previous = report.previous

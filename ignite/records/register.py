@@ -24,6 +24,9 @@ PASS, FAIL = "pass", "fail"
 COMPARED, NEW, GONE = "compared", "new", "gone"
 """How a room pairs with the previous register: in both; only now; only then."""
 
+ELECTRICAL_RULES = "electrical."
+"""The id prefix of the patient environment's electrical checks (rules/checks-electrical.yaml)."""
+
 LEFT_WINDOW, REENTERED_WINDOW = "left its window", "re-entered its window"
 """A floor's verdict turning from pass to fail, and back."""
 
@@ -81,6 +84,7 @@ class RegisterRow:
     worksheet_sha256: str = ""
     warnings: tuple[str, ...] = ()
     problems: tuple[str, ...] = ()
+    worst_electrical: FindingKey | None = None  # the worst electrical finding, if any
 
     @property
     def assessed(self) -> bool:
@@ -144,7 +148,17 @@ def row_from_results(
         worksheet_sha256=worksheet_sha256,
         warnings=tuple(results.warnings),
         problems=tuple(problems),
+        worst_electrical=worst_electrical(results.findings),
     )
+
+
+def worst_electrical(findings: Sequence[Finding]) -> FindingKey | None:
+    """The worst finding of the electrical checks (the first of the worst severity)."""
+    electrical = [f for f in findings if f.rule.startswith(ELECTRICAL_RULES)]
+    if not electrical:
+        return None
+    worst = min(electrical, key=lambda f: severity_rank(f.severity))
+    return FindingKey(worst.rule, one_line(worst.subject), worst.severity)
 
 
 @dataclass(frozen=True)

@@ -197,6 +197,88 @@ class EnvironmentResult:
 
 
 @dataclass(frozen=True)
+class SupplyResult:
+    """The supply of the patient environment and its insulation monitor, against the limit."""
+
+    system: str  # isolated | earthed
+    transformer_rating_VA: float | None
+    imd_alarm_setting_ohm: float | None
+    imd_tested_alarm_at_ohm: float | None
+    insulation_reading_ohm: float | None
+    imd_alarm_min_ohm: float | None  # the lowest alarm setting allowed (isolated supplies)
+
+
+@dataclass(frozen=True)
+class BondingResult:
+    point: str
+    kind: str  # exposed | extraneous
+    resistance_ohm: float
+    above_limit: bool
+    # the current through this conductor whose touch voltage drives the microshock limit
+    # through a direct cardiac path (null for a 0 Ω reading: no such current)
+    fault_current_for_microshock_A: float
+    touch_voltage_per_ampere_V: float = 0.0  # the touch voltage of 1 A through it (= R)
+
+
+@dataclass(frozen=True)
+class LeakageReading:
+    quantity: str  # earth_leakage | touch_current | patient_leakage
+    condition: str  # normal | single_fault
+    measured_A: float
+    limit_A: float | None  # None: no limit for this test and type
+    limit_rule: str  # the rule entry of the limit ("" when none)
+    above_limit: bool
+
+
+@dataclass(frozen=True)
+class EquipmentResult:
+    id: str
+    kind: str
+    protection_class: str  # I | II | internal
+    applied_part: str  # B | BF | CF | none
+    test: str  # type | recurrent
+    readings: tuple[LeakageReading, ...] = ()
+
+
+@dataclass(frozen=True)
+class CardiacCaseResult:
+    """The current that can reach a patient's heart, summed in phase (the worst case)."""
+
+    case: str  # case id
+    procedure: str
+    cardiac_path: str  # central-line | pacing-wires | none
+    connected: tuple[str, ...]  # equipment ids
+    non_cf_connected: tuple[str, ...]  # B or BF devices on a patient with a direct cardiac path
+    patient_leakage_normal_A: float  # Σ of the connected devices, normal condition
+    patient_leakage_single_fault_A: float  # the same with the worst one device in single fault
+    counted_at_limit: tuple[str, ...]  # devices without a reading, counted at their limit
+    bonding_resistance_ohm: float  # the worst bonding reading (or the limit, when none given)
+    touch_voltage_V: float  # Σ earth leakage of the connected devices across that conductor
+    touch_cardiac_current_A: float  # that touch voltage across the cardiac path's impedance
+    cardiac_current_normal_A: float | None  # None: no direct cardiac path
+    cardiac_current_single_fault_A: float | None
+    largest_device: str = ""  # the device with the largest patient leakage
+    largest_device_A: float = 0.0
+    worst_fault_device: str = ""  # the device whose single fault gives the largest sum
+    worst_fault_device_A: float = 0.0  # its current in that fault
+
+
+@dataclass(frozen=True)
+class ElectricalResult:
+    """The patient environment's electrical safety (rooms with an `electrical` section)."""
+
+    supply: SupplyResult | None
+    bonding_limit_ohm: float
+    bonding: tuple[BondingResult, ...]
+    equipment: tuple[EquipmentResult, ...]
+    cases: tuple[CardiacCaseResult, ...]
+    microshock_limit_A: float
+    microshock_single_fault_limit_A: float
+    cardiac_path_impedance_ohm: float
+    caution: str = ""  # the electrical caution, beside the figures
+
+
+@dataclass(frozen=True)
 class Results:
     tool_version: str
     input_sha256: str
@@ -219,6 +301,7 @@ class Results:
     oxygen_enriched_limit_fraction: float = field(kw_only=True)
     # chart data: per person/trolley label, (RH fraction, body voltage V) at the room's leak path
     voltage_vs_rh: tuple[tuple[str, tuple[tuple[float, float], ...]], ...] = ()
+    electrical: ElectricalResult | None = None  # rooms with an `electrical` section
 
     def worst_severity(self) -> str | None:
         if not self.findings:
@@ -231,7 +314,7 @@ class Results:
         Always valid JSON: a figure that does not exist (a pocket that never clears, an
         infinite time) is null, with its reason in a `<name>_note` key beside it.
         """
-        return _clean(
+        record = _clean(
             {
                 "format": 1,
                 "tool_version": self.tool_version,
@@ -248,6 +331,9 @@ class Results:
                 "warnings": list(self.warnings),
             }
         )
+        if self.electrical is not None:  # an addition: only rooms with an electrical section
+            record["electrical"] = _clean(asdict(self.electrical))
+        return record
 
 
 def _charge_record(charge: ChargeResult, label_key: str) -> dict[str, Any]:
@@ -274,6 +360,7 @@ _NO_VALUE_REASONS: dict[str, str] = {
     "open_air_drying_time_s": "never: the flammable part of the prep does not evaporate in "
     "the time modelled",
     "settle_time_s": "never: the voltage does not fall below the no-spark voltage",
+    "fault_current_for_microshock_A": "none: a conductor of 0 Ω lifts the part by no voltage",
 }
 _UNIT_SUFFIXES = (
     "_fraction_of_lfl",
@@ -283,6 +370,7 @@ _UNIT_SUFFIXES = (
     "_ohm",
     "_m3",
     "_Hz",
+    "_VA",
     "_V",
     "_A",
     "_C",

@@ -9,7 +9,15 @@ from __future__ import annotations
 
 import math
 
-from ignite.records.results import SEVERITIES, ChargeResult, Finding, Results, severity_rank
+from ignite.records.results import (
+    SEVERITIES,
+    CardiacCaseResult,
+    ChargeResult,
+    ElectricalResult,
+    Finding,
+    Results,
+    severity_rank,
+)
 from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
 from ignite.wording.numbers import NO_VALUE, format_against_limit, format_duration, format_si
@@ -197,6 +205,8 @@ def render_text(results: Results) -> str:
             f"  {say.CASE_MATERIALS_BURNING}: {say.names_or_none(case.materials_sustain_burning)}"
         )
         out.append("")
+    if r.electrical is not None:
+        out += electrical_lines(r.electrical)
     counts = {s: sum(1 for f in r.findings if f.severity == s) for s in SEVERITIES}
     out.append(say.text_findings(counts))
     if not r.findings:
@@ -206,4 +216,106 @@ def render_text(results: Results) -> str:
     if r.warnings:
         out += ["", say.TEXT_WARNINGS] + [f"  {w}" for w in r.warnings]
     out += ["", say.TEXT_CAUTION, ""]
+    if r.electrical is not None:
+        out[-1:] = [say.ELECTRICAL_CAUTION, ""]
     return "\n".join(out)
+
+
+def _limit_text(value: float, limit: float | None, unit: str) -> tuple[str, str]:
+    if limit is None:
+        return format_si(value, unit), say.NO_LIMIT
+    return format_against_limit(value, limit, unit)
+
+
+def electrical_lines(found: ElectricalResult) -> list[str]:
+    """The patient environment's electrical section of the terminal table."""
+    out = [say.TEXT_ELECTRICAL]
+    supply = found.supply
+    if supply is not None:
+        alarm = say.supply_alarm(supply.imd_alarm_setting_ohm, supply.imd_alarm_min_ohm)
+        out.append(
+            "  "
+            + say.text_supply(
+                supply.system,
+                supply.transformer_rating_VA,
+                alarm,
+                format_si(supply.imd_tested_alarm_at_ohm, "Ω")
+                if supply.imd_tested_alarm_at_ohm is not None
+                else NO_VALUE,
+                format_si(supply.insulation_reading_ohm, "Ω")
+                if supply.insulation_reading_ohm is not None
+                else NO_VALUE,
+            )
+        )
+    if found.bonding:
+        out.append("  " + say.text_bonding_heading(found.bonding_limit_ohm))
+        rows = []
+        for number, point in enumerate(found.bonding, start=1):
+            reading, limit = format_against_limit(
+                point.resistance_ohm, found.bonding_limit_ohm, "Ω"
+            )
+            rows.append(
+                [
+                    str(number),
+                    point.point,
+                    reading,
+                    say.within_or_above(point.above_limit, limit),
+                    format_si(point.fault_current_for_microshock_A, "A"),
+                ]
+            )
+        out += _table(list(say.BONDING_HEADERS), rows, indent="    ")
+    if found.equipment:
+        rows = []
+        for device in found.equipment:
+            readings = []
+            for item in device.readings:
+                measured, limit = _limit_text(item.measured_A, item.limit_A, "A")
+                mark = say.TEXT_OUTSIDE_MARK if item.above_limit else ""
+                readings.append(
+                    f"{say.reading_label(item.quantity, item.condition)} {measured}{mark} ({limit})"
+                )
+            rows.append(
+                [
+                    f"{device.id} ({device.kind})",
+                    device.protection_class,
+                    device.applied_part,
+                    device.test,
+                    "; ".join(readings) or NO_VALUE,
+                ]
+            )
+        out.append("  " + say.HEADING_EQUIPMENT)
+        out += _table(list(say.EQUIPMENT_HEADERS), rows, indent="    ")
+    for case in found.cases:
+        out.append("  " + _cardiac_line(case, found))
+    if found.cases:
+        out.append(
+            "  "
+            + say.microshock_basis(
+                found.microshock_limit_A,
+                found.microshock_single_fault_limit_A,
+                found.cardiac_path_impedance_ohm,
+            )
+        )
+    out.append("")
+    return out
+
+
+def _cardiac_line(case: CardiacCaseResult, found: ElectricalResult) -> str:
+    patient = (
+        f"{format_si(case.patient_leakage_normal_A, 'A')} / "
+        f"{format_si(case.patient_leakage_single_fault_A, 'A')}"
+    )
+    touch = f"{say.volts(case.touch_voltage_V)} -> {format_si(case.touch_cardiac_current_A, 'A')}"
+    if case.cardiac_current_normal_A is None or case.cardiac_current_single_fault_A is None:
+        heart = say.microshock_no_direct_path()
+    else:
+        normal, limit = format_against_limit(
+            case.cardiac_current_normal_A, found.microshock_limit_A, "A"
+        )
+        fault, fault_limit = format_against_limit(
+            case.cardiac_current_single_fault_A, found.microshock_single_fault_limit_A, "A"
+        )
+        heart = f"{normal} (limit {limit}) / {fault} (limit {fault_limit})"
+    return say.text_cardiac_case(
+        case.case, case.cardiac_path, case.connected, patient, touch, heart
+    )

@@ -273,6 +273,69 @@ POCKET_TURNOVER_REASON = (
     "check the volume and the exchange and their units"
 )
 
+# --- the electrical section (ignite.room.electrical) ---------------------------------
+_BONDING = Bound(
+    "resistance",
+    Limits("between 0 Ω and 1 kΩ", low=0.0, high=1e3),
+    Limits("up to 1 Ω", high=1.0),
+    "a bonding conductor to the equipotential bonding bar reads milliohms to tenths of an "
+    "ohm (IEC 60364-7-710 sets 0.2 Ω; memory); a resistance is never negative, and a "
+    "reading in kΩ is a slip of unit or an open connection",
+)
+_LEAKAGE = Bound(
+    "current",
+    Limits("between 0 µA and 100 mA", low=0.0, high=0.1),
+    Limits("up to 20 mA", high=0.02),
+    "leakage and touch currents of medical equipment read microamperes to a few "
+    "milliamperes (IEC 60601-1 allows at most 10 mA of earth leakage in single fault; "
+    "memory); a current is never negative, and amperes are a slip of unit",
+)
+_MONITOR = Bound(
+    "resistance",
+    Limits("between 1 kΩ and 1000 MΩ", low=1e3, high=1e9),
+    Limits("20 kΩ to 500 kΩ", low=20e3, high=500e3),
+    "an insulation monitor of a medical IT system alarms at some tens of kΩ (IEC "
+    "60364-7-710 asks for 50 kΩ or more; memory); MΩ for kΩ is a slip of unit",
+)
+BOUNDS.update(
+    {
+        "electrical.supply.transformer_rating": Bound(
+            "power",
+            Limits("between 100 VA and 100 kVA", low=100.0, high=1e5),
+            Limits("0.5 kVA to 10 kVA", low=500.0, high=1e4),
+            "medical IT transformers are rated 0.5-10 kVA (IEC 60364-7-710, IEC 61558-2-15; "
+            "memory); write the rating in VA or kVA",
+        ),
+        "electrical.supply.insulation_monitor.alarm_setting": _MONITOR,
+        "electrical.supply.insulation_monitor.tested_alarm_at": _MONITOR,
+        "electrical.supply.insulation_monitor.insulation_reading": Bound(
+            "resistance",
+            Limits("between 1 kΩ and 1000 TΩ", low=1e3, high=1e15),
+            None,
+            "an IT supply's insulation reads from tens of kΩ (a fault) to many MΩ; "
+            "below 1 kΩ is a short circuit to earth",
+        ),
+        "electrical.bonding[].resistance": _BONDING,
+        **{
+            f"electrical.equipment[].{key}{condition}": _LEAKAGE
+            for key in ("earth_leakage", "touch_current", "patient_leakage")
+            for condition in ("", ".normal", ".single_fault")
+        },
+    }
+)
+LISTS_ELECTRICAL: dict[str, ListLimit] = {
+    "electrical.bonding": ListLimit(
+        500, "bonding readings", "one reading per bonded part of one theatre: some tens"
+    ),
+    "electrical.equipment": ListLimit(
+        200, "devices", "the equipment in one patient environment: some tens"
+    ),
+    "electrical.cases": ListLimit(100, "cases", "one entry per case of one operating list"),
+    "electrical.cases[].connected": ListLimit(
+        50, "devices", "the equipment connected to one patient"
+    ),
+}
+
 TEXT_LENGTH = 200
 TEXT_REASON = "a name or label the worksheet prints on a line or two"
 
@@ -296,6 +359,8 @@ LISTS: dict[str, ListLimit] = {
         50, "ignition sources", "the devices used in one case (each named once)"
     ),
 }
+
+LISTS.update(LISTS_ELECTRICAL)
 
 _INDEX = re.compile(r"\[\d+\]")
 

@@ -37,6 +37,7 @@ from ignite.room.bounds import (
     bound_for,
     list_limit,
 )
+from ignite.room.electrical import read_electrical
 from ignite.room.hints import bare_number_hint, other_scale_hint
 from ignite.room.model import (
     Case,
@@ -84,6 +85,7 @@ _TOP = {
     "preparations": False,
     "materials": False,
     "cases": False,
+    "electrical": False,
 }
 _ROOM = {
     "id": True,
@@ -422,6 +424,10 @@ class _Reader:
         preparations = self.preparations(top.get("preparations"))
         materials = self.materials(top.get("materials"), "materials")
         cases = self.cases(top.get("cases"), {prep.id for prep in preparations if prep.id})
+        electrical = None
+        if "electrical" in top:
+            system = header.mains.system if header else ""
+            electrical = read_electrical(self, top["electrical"], {c.id for c in cases}, system)
         return Room(
             path=self.filename,
             sha256=digest,
@@ -436,6 +442,7 @@ class _Reader:
             materials=materials,
             cases=cases,
             warnings=tuple(str(warning) for warning in self.warnings),
+            electrical=electrical,
         )
 
     def header(self, value: Any, path: str) -> RoomHeader | None:

@@ -117,6 +117,68 @@ class Case:
 
 
 @dataclass(frozen=True)
+class Leakage:
+    """A leakage or touch current as measured, in normal and single-fault condition (A)."""
+
+    normal: float | None
+    single_fault: float | None
+
+
+@dataclass(frozen=True)
+class InsulationMonitor:
+    """The insulation monitor of an isolated (IT) supply: its setting and test readings (Ω)."""
+
+    alarm_setting: float
+    tested_alarm_at: float | None  # the insulation resistance at which it alarmed on test
+    insulation_reading: float | None  # the supply's insulation resistance as read
+
+
+@dataclass(frozen=True)
+class Supply:
+    system: str  # "isolated" | "earthed"
+    transformer_rating: float | None  # VA (W), isolating transformer
+    insulation_monitor: InsulationMonitor | None
+
+
+@dataclass(frozen=True)
+class BondingPoint:
+    point: str
+    kind: str  # "exposed" | "extraneous" conductive part
+    resistance: float  # Ω to the equipotential bonding bar
+
+
+@dataclass(frozen=True)
+class Equipment:
+    id: str
+    kind: str
+    protection_class: str  # "I" | "II" | "internal"
+    applied_part: str  # "B" | "BF" | "CF" | "none"
+    test: str  # "type" (IEC 60601-1) | "recurrent" (IEC 62353)
+    earth_leakage: Leakage
+    touch_current: Leakage
+    patient_leakage: Leakage
+
+
+@dataclass(frozen=True)
+class CardiacCase:
+    """A case's conductive paths to the patient's heart and the equipment connected to them."""
+
+    case: str  # a case id
+    cardiac_path: str  # "central-line" | "pacing-wires" | "none"
+    connected: tuple[str, ...]  # equipment ids
+
+
+@dataclass(frozen=True)
+class Electrical:
+    """The patient environment's electrical safety (the optional `electrical` section)."""
+
+    supply: Supply | None = None
+    bonding: tuple[BondingPoint, ...] = ()
+    equipment: tuple[Equipment, ...] = ()
+    cases: tuple[CardiacCase, ...] = ()
+
+
+@dataclass(frozen=True)
 class Room:
     path: str  # the file it came from
     sha256: str  # of the file's bytes
@@ -131,6 +193,7 @@ class Room:
     materials: tuple[str, ...] = ()
     cases: tuple[Case, ...] = ()
     warnings: tuple[str, ...] = field(default=())
+    electrical: Electrical | None = None  # None: the file has no `electrical` section
 
 
 @dataclass(frozen=True)

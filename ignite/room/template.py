@@ -146,4 +146,30 @@ cases:                            # the planned list; may be empty (cases: []) o
     first_activation_after: 5 min
     materials: [nonwoven polypropylene]
     ignition_sources: [bipolar electrosurgery]
+
+electrical:                       # optional: the patient environment's electrical safety
+                                  # (docs/electrical.md); every part below is optional too
+  supply:
+    system: isolated              # isolated | earthed; as room.mains.system
+    transformer_rating: 8 kVA     # isolated only: the isolating transformer
+    insulation_monitor:           # isolated only
+      alarm_setting: 50 kΩ        # the resistance it is set to alarm at
+      tested_alarm_at: 51 kΩ      # optional: where it alarmed on test (a test resistor)
+      insulation_reading: 4 MΩ    # optional: the supply's insulation as the monitor reads it
+  bonding:                        # each bonded part, to the equipotential bonding bar
+    - {point: operating table column, kind: exposed, resistance: 0.07 Ω}
+    - {point: medical gas pipework, kind: extraneous, resistance: 0.05 Ω}
+  equipment:                      # each device in the patient environment, as last tested
+    - id: monitor-1               # unique; cases below name the devices by it
+      kind: patient monitor
+      protection_class: I         # I | II | internal (internally powered)
+      applied_part: CF            # B | BF | CF | none
+      test: recurrent             # recurrent (IEC 62353) | type (IEC 60601-1)
+      earth_leakage: 150 µA       # optional, each: a current in normal condition, or
+      touch_current: 12 µA        # {normal: ..., single_fault: ...} (type tests only)
+      patient_leakage: 4 µA
+  cases:                          # per case: its paths to the heart, the devices on it
+    - case: 1
+      cardiac_path: none          # central-line | pacing-wires | none
+      connected: [monitor-1]
 """

@@ -18,14 +18,17 @@ from ignite.rules.bound import (
     BoundCheck,
     BoundLimit,
     ChargeModel,
+    ElectricalRules,
     FloorWindow,
     FootwearClass,
     Fuel,
     Material,
     OxygenModel,
     PrepAssumptions,
+    RuleValue,
     ShockModel,
     SourcedValue,
+    leakage_selector,
 )
 from ignite.rules.rulebook import Entry, Limit, Rulebook
 
@@ -93,6 +96,7 @@ def bind(room: Room, book: Rulebook) -> Bound:
         if _has_subjects(str(entry.get("reads")), room)
     )
     _note_ignition_sources(reader, room)
+    electrical = _electrical(reader, room)
     return Bound(
         rules_digest=book.digest,
         window=window,
@@ -107,6 +111,7 @@ def bind(room: Room, book: Rulebook) -> Bound:
         prep=prep,
         checks=checks,
         consulted=frozenset(reader.consulted),
+        electrical=electrical,
     )
 
 
@@ -315,6 +320,69 @@ def _note_ignition_sources(reader: _Reader, room: Room) -> None:
         reader.optional("brush-discharge")
 
 
+# --- the patient environment's electrical safety ---------------------------------------
+
+LEAKAGE_LIMITS: dict[tuple[str, str, str, str], str] = {
+    ("type", "earth_leakage", "normal", ""): "iec60601.earth_leakage_normal",
+    ("type", "earth_leakage", "single_fault", ""): "iec60601.earth_leakage_single_fault",
+    ("type", "touch_current", "normal", ""): "iec60601.touch_current_normal",
+    ("type", "touch_current", "single_fault", ""): "iec60601.touch_current_single_fault",
+    ("type", "patient_leakage", "normal", "B"): "patient.leakage_b_normal",
+    ("type", "patient_leakage", "normal", "BF"): "patient.leakage_b_normal",
+    ("type", "patient_leakage", "normal", "CF"): "patient.leakage_cf_normal",
+    ("type", "patient_leakage", "single_fault", "B"): "patient.leakage_b_single_fault",
+    ("type", "patient_leakage", "single_fault", "BF"): "patient.leakage_b_single_fault",
+    ("type", "patient_leakage", "single_fault", "CF"): "patient.leakage_cf_single_fault",
+    ("recurrent", "earth_leakage", "normal", "I"): "iec62353.equipment_leakage_class_i",
+    ("recurrent", "earth_leakage", "normal", "II"): "iec62353.equipment_leakage_class_ii",
+    ("recurrent", "earth_leakage", "normal", "internal"): "iec62353.equipment_leakage_class_ii",
+    ("recurrent", "touch_current", "normal", ""): "me_system.touch_current_normal",
+    ("recurrent", "patient_leakage", "normal", "BF"): "iec62353.applied_part_leakage_bf",
+    ("recurrent", "patient_leakage", "normal", "CF"): "iec62353.applied_part_leakage_cf",
+}
+"""Which rule entry limits each leakage reading: (test, quantity, condition, selector) -> id.
+A recurrent test of a type B applied part has no applied-part leakage limit (IEC 62353)."""
+
+
+def _rule_value(reader: _Reader, entry_id: str) -> RuleValue:
+    item = reader.entry(entry_id).sourced("value")
+    return RuleValue(entry_id, float(item.value), item.source, item.flag)
+
+
+def _electrical(reader: _Reader, room: Room) -> ElectricalRules | None:
+    """The limits of the patient environment, for a room with an `electrical` section; the
+    leakage limits read are those of the tests, applied parts and classes of its equipment
+    (and the type-test patient and earth leakage limits a connected device without a reading
+    is counted at)."""
+    if room.electrical is None:
+        return None
+    wanted: set[tuple[str, str, str, str]] = set()
+    for device in room.electrical.equipment:
+        for quantity in ("earth_leakage", "touch_current", "patient_leakage"):
+            for condition in ("normal", "single_fault"):
+                selector = leakage_selector(
+                    quantity, device.test, device.applied_part, device.protection_class
+                )
+                wanted.add((device.test, quantity, condition, selector))
+                assumed = leakage_selector(
+                    quantity, "type", device.applied_part, device.protection_class
+                )
+                wanted.add(("type", quantity, condition, "BF" if assumed == "none" else assumed))
+    leakage = {
+        key: _rule_value(reader, LEAKAGE_LIMITS[key])
+        for key in sorted(wanted)
+        if key in LEAKAGE_LIMITS
+    }
+    return ElectricalRules(
+        bonding_max=_rule_value(reader, "electrical.bonding_resistance_max"),
+        imd_alarm_min=_rule_value(reader, "electrical.imd_alarm_min"),
+        leakage=leakage,
+        microshock_limit=_rule_value(reader, "microshock.limit"),
+        microshock_single_fault_limit=_rule_value(reader, "microshock.single_fault_limit"),
+        path_impedance=_rule_value(reader, "microshock.path_impedance"),
+    )
+
+
 # --- checks --------------------------------------------------------------------------
 
 
@@ -323,6 +391,8 @@ def _has_subjects(reads: str, room: Room) -> bool:
     cases, charge results people or trolleys. Checks that cannot apply are not bound (and
     so not listed among the rules consulted)."""
     family = reads.split(".", 1)[0]
+    if family == "electrical":
+        return room.electrical is not None
     if family == "case":
         return bool(room.cases)
     if family == "charge":

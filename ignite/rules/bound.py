@@ -129,6 +129,44 @@ class PrepAssumptions:
 
 
 @dataclass(frozen=True)
+class RuleValue:
+    """A rule value with the id of its entry, for a figure a finding names its rule for."""
+
+    id: str
+    value: float
+    source: str
+    flag: str
+
+
+@dataclass(frozen=True)
+class ElectricalRules:
+    """The patient environment's limits (rules/electrical.yaml), for rooms with an
+    `electrical` section.
+
+    `leakage` maps (test, quantity, condition, selector) to its limit: test "type" or
+    "recurrent"; quantity earth_leakage, touch_current or patient_leakage; condition
+    "normal" or "single_fault"; selector the applied part (B, BF, CF) for patient leakage,
+    the protection class (I, II, internal) for a recurrent earth leakage, else "".
+    """
+
+    bonding_max: RuleValue  # Ω
+    imd_alarm_min: RuleValue  # Ω
+    leakage: Mapping[tuple[str, str, str, str], RuleValue]  # A
+    microshock_limit: RuleValue  # A, normal condition
+    microshock_single_fault_limit: RuleValue  # A
+    path_impedance: RuleValue  # Ω, of a direct cardiac path
+
+
+def leakage_selector(quantity: str, test: str, applied_part: str, protection_class: str) -> str:
+    """The last part of a `LEAKAGE_LIMITS` key for a device's reading."""
+    if quantity == "patient_leakage":
+        return applied_part
+    if quantity == "earth_leakage" and test == "recurrent":
+        return protection_class
+    return ""
+
+
+@dataclass(frozen=True)
 class BoundLimit:
     """A check's limit, resolved: a number with its provenance, or another result by name.
 
@@ -176,6 +214,7 @@ class Bound:
     prep: PrepAssumptions | None  # None when the room stocks no preparation
     checks: tuple[BoundCheck, ...]
     consulted: frozenset[str]
+    electrical: ElectricalRules | None = None  # None: the room has no `electrical` section
 
     def footwear_resistance(self, cls: str) -> float:
         """Sole resistance of a footwear class."""

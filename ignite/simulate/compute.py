@@ -20,6 +20,7 @@ from ignite.room.model import Room
 from ignite.rules.bound import Bound
 from ignite.simulate.cases import OPEN_DELIVERY, case_result, lowest_mie, preparations, room_fuels
 from ignite.simulate.charge import Charging, person_charge, trolley_charge, voltage_curve
+from ignite.simulate.electrical import compute_electrical
 from ignite.simulate.floor import compute_floor
 from ignite.wording import sentences
 
@@ -79,6 +80,21 @@ METHODS: tuple[MethodRef, ...] = (
         "Materials that sustain burning: LOI less 2 points", "ISO 4589-2 / ASTM D2863; NFPA 53"
     ),
 )
+
+
+ELECTRICAL_METHODS: tuple[MethodRef, ...] = (
+    MethodRef(
+        "Touch voltage of a current through a bonding conductor, U = I·R; the current at which "
+        "it drives the microshock limit through a direct cardiac path, I = I_heart·Z / R",
+        "Ohm's law; IEC 60364-7-710 (supplementary equipotential bonding)",
+    ),
+    MethodRef(
+        "Current through a direct cardiac path: patient leakage of the connected devices summed "
+        "in phase (one device at a time in single fault), plus U_touch / Z",
+        "IEC 60601-1 (leakage currents, single-fault condition); in-phase sum, the upper bound",
+    ),
+)
+"""Added to the worksheet's methods for a room with an `electrical` section."""
 
 
 def compute(room: Room, bound: Bound) -> Results:
@@ -174,6 +190,7 @@ def compute(room: Room, bound: Bound) -> Results:
         no_spark_voltage_V=model.no_spark_voltage,
         oxygen_enriched_limit_fraction=bound.oxygen.enriched_limit,
         voltage_vs_rh=tuple((c.label, voltage_curve(c, model)) for c in charges),
+        electrical=compute_electrical(room, bound),
     )
 
 

@@ -22,8 +22,10 @@ from dataclasses import dataclass
 from ignite.findings.cases import round_up
 from ignite.records.results import (
     SEVERITIES,
+    CardiacCaseResult,
     CaseResult,
     ChargeResult,
+    ElectricalResult,
     Finding,
     FloorResult,
     MethodRef,
@@ -33,6 +35,7 @@ from ignite.records.results import (
     severity_rank,
 )
 from ignite.report.worksheet.plan import Action, Plan, build_plan, list_actions
+from ignite.simulate.compute import ELECTRICAL_METHODS
 from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
 from ignite.wording.numbers import (
@@ -151,6 +154,22 @@ class Footer:
 
 
 @dataclass(frozen=True)
+class ElectricalView:
+    """The patient environment's electrical section (rooms with an `electrical` section)."""
+
+    leads: bool  # a recommissioning record: the section comes before the cases
+    intro: str
+    supply: Table | None
+    bonding: Table
+    bonding_heading: str
+    equipment: Table
+    cases: Table
+    basis: str  # the microshock limits and the cardiac path's impedance
+    notes: tuple[str, ...]
+    caution: str
+
+
+@dataclass(frozen=True)
 class WorksheetView:
     title: str  # document metadata: "ignite worksheet — T4"
     heading: str
@@ -195,6 +214,7 @@ class WorksheetView:
     glossary: tuple[tuple[str, str], ...] = ()
     flags: tuple[str, ...] = ()  # each provenance flag used, with its meaning
     preparation_methods: tuple[str, ...] = ()  # per preparation, in the methods appendix
+    electrical: ElectricalView | None = None  # rooms with an `electrical` section
 
 
 # --------------------------------------------------------------------------- build
@@ -218,6 +238,8 @@ def build_view(
     verdict, worst = _verdict(results.findings, room.purpose)
     prompt, decisions = say.sign_off(room.purpose)
     people_and_trolleys = (*results.people, *results.trolleys)
+    if results.electrical is not None:
+        methods = (*methods, *ELECTRICAL_METHODS)
     view = WorksheetView(
         title=say.worksheet_title(room.id),
         heading=say.document_heading(room.purpose),
@@ -257,7 +279,8 @@ def build_view(
         preparation_notes=_preparation_notes(results.preparations),
         preparation_methods=_preparation_methods(results.preparations),
         environment=_environment_table(results),
-        cautions=say.cautions(room.purpose),
+        cautions=say.cautions(room.purpose)
+        + ((say.ELECTRICAL_CAUTION,) if results.electrical else ()),
         sign_off_roles=say.SIGN_OFF_ROLES,
         sign_off_decisions=decisions,
         rules=Table(
@@ -290,6 +313,7 @@ def build_view(
             say.flag_meaning(flag)
             for flag in _in_order([f.flag for f in findings] + [r.flag for r in rules])
         ),
+        electrical=_electrical_view(results),
     )
     return dataclasses.replace(view, glossary=_glossary(view))
 
@@ -581,6 +605,7 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     else:
         rows.append((mie_label, format_si(case.mie_J, "J"), "", ""))
 
+    rows += microshock_rows(case.id, results.electrical)
     lists = (
         (say.CASE_MATERIALS_BURNING, names_or_none(case.materials_sustain_burning)),
         (say.CASE_MATERIALS_CHARGE, names_or_none(case.materials_holding_charge)),
@@ -1143,4 +1168,164 @@ def _film_chart(case: CaseResult) -> Chart | None:
         y=linear_axis(say.FILM_CHART_AXIS_Y, 0.0, max(top, 10.0), count=4),
         series=(Series(say.FILM_CHART_SERIES, tuple((t / scale, x * 100) for t, x in points), 0),),
         lines=tuple(RefLine("v", t / scale, label, kind="event") for t, label in events),
+    )
+
+
+# --------------------------------------------------------------------------- electrical
+
+
+def _cardiac_of(case_id: str, found: ElectricalResult | None) -> CardiacCaseResult | None:
+    if found is None:
+        return None
+    return next((c for c in found.cases if c.case == case_id), None)
+
+
+def microshock_rows(
+    case_id: str, found: ElectricalResult | None
+) -> list[tuple[str, str, str, str]]:
+    """A case's microshock lines for its quantities table (none without a cardiac path)."""
+    cardiac = _cardiac_of(case_id, found)
+    if found is None or cardiac is None:
+        return []
+    rows = []
+    for label, value, limit in (
+        (say.MICROSHOCK_NORMAL, cardiac.cardiac_current_normal_A, found.microshock_limit_A),
+        (
+            say.MICROSHOCK_SINGLE_FAULT,
+            cardiac.cardiac_current_single_fault_A,
+            found.microshock_single_fault_limit_A,
+        ),
+    ):
+        if value is None:
+            continue
+        measured, limit_text = format_against_limit(value, limit, "A")
+        state = say.AT_OR_ABOVE_LIMIT if value >= limit else say.BELOW_LIMIT
+        rows.append((label, measured, say.limit_of(limit_text), state))
+    return rows
+
+
+def _electrical_view(results: Results) -> ElectricalView | None:
+    found = results.electrical
+    if found is None:
+        return None
+    supply = None
+    if found.supply is not None:
+        s = found.supply
+        rows = [(say.SUPPLY_SYSTEM, s.system)]
+        if s.transformer_rating_VA is not None:
+            rows.append((say.SUPPLY_TRANSFORMER, say.volt_amperes(s.transformer_rating_VA)))
+        if s.imd_alarm_setting_ohm is not None:
+            alarm = format_si(s.imd_alarm_setting_ohm, "Ω")
+            if s.imd_alarm_min_ohm is not None:
+                alarm, minimum = format_against_limit(
+                    s.imd_alarm_setting_ohm, s.imd_alarm_min_ohm, "Ω"
+                )
+                alarm = f"{alarm} ({say.limit_of('≥ ' + minimum)})"
+            rows.append((say.SUPPLY_ALARM, alarm))
+        if s.imd_tested_alarm_at_ohm is not None:
+            tested = format_si(s.imd_tested_alarm_at_ohm, "Ω")
+            if s.imd_alarm_min_ohm is not None:
+                tested, minimum = format_against_limit(
+                    s.imd_tested_alarm_at_ohm, s.imd_alarm_min_ohm, "Ω"
+                )
+                tested = f"{tested} ({say.limit_of('≥ ' + minimum)})"
+            rows.append((say.SUPPLY_TESTED, tested))
+        if s.insulation_reading_ohm is not None:
+            rows.append((say.SUPPLY_INSULATION, format_si(s.insulation_reading_ohm, "Ω")))
+        supply = Table(headers=(say.HEADING_SUPPLY, ""), rows=tuple(rows), widths=(1.6, 1.6))
+    bonding_rows = []
+    for number, point in enumerate(found.bonding, start=1):
+        reading, limit = format_against_limit(point.resistance_ohm, found.bonding_limit_ohm, "Ω")
+        bonding_rows.append(
+            (
+                str(number),
+                f"{point.point} ({say.BONDED_PART_WORDS.get(point.kind, point.kind)})",
+                reading,
+                say.within_or_above(point.above_limit, limit),
+                format_si(point.fault_current_for_microshock_A, "A"),
+            )
+        )
+    equipment_rows = []
+    for device in found.equipment:
+        readings = []
+        for r in device.readings:
+            if r.limit_A is None:
+                text, limit = format_si(r.measured_A, "A"), say.NO_LIMIT
+            else:
+                text, limit = format_against_limit(r.measured_A, r.limit_A, "A")
+                limit = say.within_or_above(r.above_limit, limit)
+            readings.append(f"{say.reading_label(r.quantity, r.condition)}: {text} ({limit})")
+        equipment_rows.append(
+            (
+                f"{device.id}\n{device.kind}",
+                device.protection_class,
+                device.applied_part,
+                say.TEST_WORD.get(device.test, device.test),
+                "\n".join(readings) or NO_VALUE,
+            )
+        )
+    case_rows = []
+    notes = []
+    for cardiac in found.cases:
+        if (
+            cardiac.cardiac_current_normal_A is None
+            or cardiac.cardiac_current_single_fault_A is None
+        ):
+            heart = say.microshock_no_direct_path()
+        else:
+            normal, limit = format_against_limit(
+                cardiac.cardiac_current_normal_A, found.microshock_limit_A, "A"
+            )
+            fault, fault_limit = format_against_limit(
+                cardiac.cardiac_current_single_fault_A, found.microshock_single_fault_limit_A, "A"
+            )
+            heart = say.pair_of(
+                f"{normal} ({say.limit_of(limit)})", f"{fault} ({say.limit_of(fault_limit)})"
+            )
+        case_rows.append(
+            (
+                say.cardiac_subject(cardiac.case, cardiac.procedure),
+                say.CARDIAC_PATH_WORDS.get(cardiac.cardiac_path, cardiac.cardiac_path),
+                names_or_none(cardiac.connected),
+                say.pair_of(
+                    format_si(cardiac.patient_leakage_normal_A, "A"),
+                    format_si(cardiac.patient_leakage_single_fault_A, "A"),
+                ),
+                f"{say.volts(cardiac.touch_voltage_V)}, "
+                f"{format_si(cardiac.touch_cardiac_current_A, 'A')}",
+                heart,
+            )
+        )
+        if cardiac.counted_at_limit:
+            notes.append(say.counted_at_limit(cardiac.counted_at_limit))
+    return ElectricalView(
+        leads=results.room.purpose == "recommissioning",
+        intro=say.electrical_section_intro(results.room.purpose),
+        supply=supply,
+        bonding=Table(
+            headers=say.BONDING_HEADERS,
+            rows=tuple(bonding_rows),
+            widths=(0.3, 2.2, 0.8, 1.5, 1.2),
+            empty_text=say.NO_BONDING,
+        ),
+        bonding_heading=say.text_bonding_heading(found.bonding_limit_ohm),
+        equipment=Table(
+            headers=say.EQUIPMENT_HEADERS,
+            rows=tuple(equipment_rows),
+            widths=(1.8, 0.5, 0.6, 0.7, 3.2),
+            empty_text=say.NO_EQUIPMENT,
+        ),
+        cases=Table(
+            headers=say.MICROSHOCK_HEADERS,
+            rows=tuple(case_rows),
+            widths=(1.6, 0.8, 1.1, 1.1, 1.0, 1.5),
+            empty_text=say.NO_CARDIAC_CASES,
+        ),
+        basis=say.microshock_basis(
+            found.microshock_limit_A,
+            found.microshock_single_fault_limit_A,
+            found.cardiac_path_impedance_ohm,
+        ),
+        notes=tuple(notes),
+        caution=say.ELECTRICAL_CAUTION,
     )

@@ -646,6 +646,36 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
     return story
 
 
+def _electrical(
+    view: model.ElectricalView, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    """The patient environment's electrical section: supply, bonding, equipment, microshock."""
+    story: list[Flowable] = [
+        CondPageBreak(60 * mm),
+        _p(say.SECTION_ELECTRICAL, st["h2"]),
+        _p(view.intro, st["body"]),
+        _p(view.caution, st["small"]),
+        Spacer(1, 4),
+    ]
+    if view.supply is not None:
+        story += [_pairs(view.supply, width * 0.6, st), Spacer(1, 5)]
+    story += [_p(view.bonding_heading, st["h3"]), _grid(view.bonding, width, st), Spacer(1, 5)]
+    story += [
+        CondPageBreak(30 * mm),
+        _p(say.HEADING_EQUIPMENT, st["h3"]),
+        _grid(view.equipment, width, st),
+        Spacer(1, 5),
+        CondPageBreak(30 * mm),
+        _p(say.HEADING_MICROSHOCK, st["h3"]),
+        _grid(view.cases, width, st),
+    ]
+    if view.cases.rows:
+        story.append(_p(view.basis, st["small"]))
+    story += [_p(note, st["small"], bulletText="–") for note in view.notes]
+    story.append(Spacer(1, 8))
+    return story
+
+
 def _cautions_and_sign_off(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
@@ -1264,8 +1294,14 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     story += _glossary(view, width, st)
     story += [CondPageBreak(60 * mm)]
     story += _findings(view, width, st)
+    if view.electrical is not None and view.electrical.leads:
+        story += _electrical(view.electrical, width, st)
     story += _cases(view, width, st)
     story += _room(view, width, st)
+    # a list plan shows the cases' microshock lines (in the case tables) and the electrical
+    # findings; the full electrical section belongs to the commissioning and audit records
+    if view.electrical is not None and not view.electrical.leads and view.purpose != "pre-list":
+        story += _electrical(view.electrical, width, st)
     story += _cautions_and_sign_off(view, width, st)
     story += _appendix(view, width, st)
     doc.build(story, canvasmaker=_canvas_maker(view))
