@@ -54,7 +54,12 @@ def test_a_deleted_or_broken_unit_cache_is_only_a_missed_shortcut(tmp_path):
     (folder,) = cache.glob("pint-*")
     for kept in folder.glob("*.pickle"):
         kept.write_bytes(b"broken")
-    assert _probe(cache)["values"] == plain["values"]
+    assert _probe(cache)["values"] == plain["values"]  # built without it, and set it aside
+    assert not list(cache.glob(".tmp-*"))
+    assert _probe(cache)["values"] == plain["values"]  # filled again
+    (folder,) = cache.glob("pint-*")
+    assert (folder / "complete").is_file()
+    assert all(kept.read_bytes() != b"broken" for kept in folder.glob("*.pickle"))
     for kept in folder.iterdir():
         kept.unlink()
     folder.rmdir()

@@ -24,6 +24,7 @@ import functools
 import math
 import os
 import re
+import shutil
 import sys
 import tempfile
 from dataclasses import dataclass
@@ -200,7 +201,17 @@ def _cached_registry(pint: Any) -> pint.UnitRegistry[Any] | None:
                 os.rename(staging, folder)
         return built
     except Exception:  # a cache that cannot be read or written is only a missed shortcut
+        _set_aside(folder)
         return None
+
+
+def _set_aside(folder: Path) -> None:
+    """Move a build cache that could not be used out of the way: the next run fills it again."""
+    with contextlib.suppress(OSError):
+        if folder.is_dir():
+            aside = Path(tempfile.mkdtemp(prefix=".tmp-pint-stale-", dir=folder.parent))
+            os.rename(folder, aside / "cache")
+            shutil.rmtree(aside, ignore_errors=True)
 
 
 def noun(dimension: str) -> str:
