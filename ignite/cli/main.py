@@ -11,6 +11,7 @@ YAML escape) is replaced, never a crash.
 from __future__ import annotations
 
 import contextlib
+import difflib
 import io
 import json
 import os
@@ -20,9 +21,11 @@ from pathlib import Path
 from typing import Any, NoReturn
 
 import click
+from click.shell_completion import CompletionItem
 
 from ignite import __version__
 from ignite.cli.audit import audit
+from ignite.cli.names import categories
 from ignite.errors import (
     EXIT_INTERNAL,
     EXIT_USAGE,
@@ -35,8 +38,10 @@ from ignite.errors import (
 from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
 from ignite.records.results import SEVERITIES, Results
 from ignite.report.text import render_text
+from ignite.room.schema import json_schema
 from ignite.room.template import TEMPLATE
-from ignite.rules.rulebook import Rulebook
+from ignite.rules.rulebook import Entry, Rulebook
+from ignite.wording import sentences as say
 from ignite.wording.sentences import CLI_CAUTION
 
 EXIT_CLEAN, EXIT_FINDINGS = 0, 1
@@ -74,6 +79,18 @@ def _open_rules(rules_dir: Path | None) -> Rulebook:
     except InputError as exc:  # a RuleFileError
         _say(f"ignite: invalid rule file(s):\n{exc}")
         _exit(exc.exit_code)
+
+
+def _complete_names(
+    ctx: click.Context, param: click.Parameter, incomplete: str
+) -> list[CompletionItem]:
+    """Shell completion of `ignite rules NAME`: rule ids and names starting with the text."""
+    try:
+        book = open_rulebook(ctx.params.get("rules_dir"))
+    except Exception:  # completion must never fail loudly
+        return []
+    start = incomplete.lower()
+    return [CompletionItem(name) for name in _every_name(book) if name.lower().startswith(start)]
 
 
 def _internal_error(path: Path, exc: Exception) -> None:
@@ -279,19 +296,30 @@ def _worksheet_target(output: str | None, rooms: int) -> Path | None:
 
 
 @main.command(
-    "rules", help="List every rule and value in force with its threshold, source and flag."
+    "rules",
+    help="List the names a room file may use, by category, then every rule and value in "
+    "force with its threshold, source and flag.\n\nWith NAME, show the rule or value with "
+    "that id (or every one under that id prefix), or the entry a room file reaches by that "
+    "name: a material, an ignition source, a footwear class, a site, a substance.",
 )
-@click.argument("rule_id", required=False)
+@click.argument("rule_id", metavar="[NAME]", required=False, shell_complete=_complete_names)
 @rules_option
 def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
     book = _open_rules(rules_dir)
     entries = list(book.entries.values())
     if rule_id is not None:
-        entries = [e for e in entries if e.id == rule_id or e.id.startswith(rule_id + ".")]
-        if not entries:
+        entries, words = _find(book, rule_id)
+        if not entries and not words:
             raise click.UsageError(
-                f"no rule or value with id {rule_id!r}; `ignite rules` lists them all"
+                f"no rule, value or name {rule_id!r}; {_close_names(book, rule_id)}"
             )
+        for category, keys in words:
+            click.echo(f"{rule_id!r}: one of the {category} a room file may give ({keys})")
+        if not entries:
+            return
+    else:
+        _echo_names(book)
+        click.echo("")
     click.echo(f"Rules in force: {book.directory}  (sha256 {book.digest[:16]}…)")
     wanted = {e.id for e in entries}
     kind = None
@@ -308,6 +336,81 @@ def rules_cmd(rule_id: str | None, rules_dir: Path | None) -> None:
         note = book.entry(row.id).note
         if note:
             click.echo(f"    note: {note}")
+
+
+def _echo_names(book: Rulebook) -> None:
+    """Every name a room file may use, by category, with the keys that take it."""
+    click.echo(say.NAMES_HEADING)
+    for category in categories(book):
+        click.echo(f"\n{category.title}  ({', '.join(category.keys)})")
+        for entry_id, names in category.entries:
+            if len(names) == 1 and names[0] == entry_id:
+                click.echo(f"  {entry_id}")
+            else:
+                click.echo(f"  {entry_id}: {', '.join(names)}")
+        if category.note:
+            click.echo(f"  ({category.note})")
+
+
+def _find(book: Rulebook, name: str) -> tuple[list[Entry], list[tuple[str, str]]]:
+    """Entries reached by `name` (an id, an id prefix, or any name a room file may use),
+    and the categories of fixed words (sites, purposes, ...) it belongs to."""
+    wanted = name.strip()
+    lowered = wanted.lower()
+    found = [e for e in book.entries.values() if e.id == wanted or e.id.startswith(wanted + ".")]
+    if not found:
+        found = [e for e in book.entries.values() if e.id.lower() == lowered]
+    if not found:
+        for category in categories(book):
+            for entry_id, names in category.entries:
+                known = entry_id in book.entries
+                if known and lowered in (n.lower() for n in (entry_id, *names)):
+                    entry = book.entries[entry_id]
+                    if entry not in found:
+                        found.append(entry)
+    words = [
+        (category.title, ", ".join(category.keys))
+        for category in categories(book)
+        if category.fixed
+        and any(lowered in (n.lower() for n in (i, *ns)) for i, ns in category.entries)
+    ]
+    return found, words
+
+
+def _every_name(book: Rulebook) -> list[str]:
+    names = set(book.entries)
+    for category in categories(book):
+        for entry_id, aliases in category.entries:
+            names.add(entry_id)
+            names.update(aliases)
+    return sorted(names)
+
+
+def _close_names(book: Rulebook, name: str) -> str:
+    every = [n.lower() for n in _every_name(book)]
+    holding = [n for n in every if name.strip().lower() in n][:8]
+    if holding:
+        return "names holding it: " + ", ".join(repr(n) for n in holding)
+    close = difflib.get_close_matches(name.lower(), every, n=3)
+    if close:
+        return "did you mean " + " or ".join(repr(c) for c in close) + "?"
+    return "`ignite rules` lists them all"
+
+
+@main.command(
+    help="Print the JSON Schema (draft 2020-12) of the room file, for editors that check YAML "
+    "as it is typed. The names of materials, ignition sources, floor criteria and footwear "
+    "classes are those of the rules in force (--rules)."
+)
+@rules_option
+def schema(rules_dir: Path | None) -> None:
+    book = _open_rules(rules_dir)
+    names = {
+        category.schema_name: [n for _, names in category.entries for n in names]
+        for category in categories(book)
+        if category.schema_name
+    }
+    click.echo(json.dumps(json_schema(names), indent=2, ensure_ascii=False))
 
 
 @main.command(help="Write a commented template room file that loads cleanly.")

@@ -36,7 +36,7 @@ from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
-__all__ = ["CACHE_FORMAT", "cache_directory", "load", "store"]
+__all__ = ["CACHE_FORMAT", "Versions", "cache_directory", "load", "store"]
 
 CACHE_FORMAT = 1
 """Raise when the layout of an entry, or what an entry of some kind holds, changes."""
@@ -99,47 +99,56 @@ def _versions() -> tuple[tuple[str, str], ...]:
     )
 
 
-def _header(kind: str, key: Any) -> tuple[Any, ...]:
-    return (kind, repr(key), _versions())
+Versions = tuple[tuple[str, str], ...]
+"""What an entry depends on besides its key: (name, version or digest) pairs."""
 
 
-def _path(directory: Path, kind: str, key: Any) -> Path:
-    digest = hashlib.sha256(repr(_header(kind, key)).encode("utf-8")).hexdigest()[:40]
-    return directory / f"{kind}-{digest}.pickle"
+def _header(kind: str, key: Any, versions: Versions | None) -> tuple[Any, ...]:
+    return (kind, repr(key), _versions() if versions is None else versions)
 
 
-def load(kind: str, key: Any, accept: Callable[[Any], bool]) -> Any | None:
+def _path(directory: Path, header: tuple[Any, ...]) -> Path:
+    digest = hashlib.sha256(repr(header).encode("utf-8")).hexdigest()[:40]
+    return directory / f"{header[0]}-{digest}.pickle"
+
+
+def load(
+    kind: str, key: Any, accept: Callable[[Any], bool], versions: Versions | None = None
+) -> Any | None:
     """The object stored under (kind, key) for the installed libraries, or None.
 
-    `accept` checks the object's type; an object it rejects counts as a miss.
+    `accept` checks the object's type; an object it rejects counts as a miss. `versions`
+    names what the entry depends on (the substance data's libraries when not given).
     """
     directory = cache_directory()
     if directory is None:
         return None
     try:
-        with open(_path(directory, kind, key), "rb") as file:
-            header, value = pickle.load(file)
-        if header == _header(kind, key) and accept(value):
+        header = _header(kind, key, versions)
+        with open(_path(directory, header), "rb") as file:
+            found, value = pickle.load(file)
+        if found == header and accept(value):
             return value
     except Exception:
         pass  # unreadable, corrupt or foreign: a miss, rewritten by the caller
     return None
 
 
-def store(kind: str, key: Any, value: Any) -> None:
+def store(kind: str, key: Any, value: Any, versions: Versions | None = None) -> None:
     """Keep `value` under (kind, key); any failure leaves the cache as it was."""
     directory = cache_directory()
     if directory is None:
         return
     temporary: str | None = None
     try:
-        data = pickle.dumps((_header(kind, key), value), protocol=pickle.HIGHEST_PROTOCOL)
+        header = _header(kind, key, versions)
+        data = pickle.dumps((header, value), protocol=pickle.HIGHEST_PROTOCOL)
         directory.mkdir(parents=True, exist_ok=True)
         _sweep(directory)
         handle, temporary = tempfile.mkstemp(prefix=".tmp-", suffix=".pickle", dir=directory)
         with os.fdopen(handle, "wb") as file:
             file.write(data)
-        os.replace(temporary, _path(directory, kind, key))
+        os.replace(temporary, _path(directory, header))
         temporary = None
     except Exception:
         return  # the cache is a shortcut: a failure to keep an entry is no error

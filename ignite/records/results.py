@@ -38,7 +38,7 @@ class Finding:
     limit: Amount
     comparison: str  # how measured stands against limit, in words: "above", "at or below", ...
     source: str
-    flag: str  # published | memory | common practice
+    flag: str  # published | to confirm | common practice | assumption (rules/ may write memory)
     mitigations: tuple[str, ...] = ()
     detail: str = ""  # one sentence of explanation, already formatted
     # additions to the contract: what the two amounts are to the reader

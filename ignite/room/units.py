@@ -19,13 +19,20 @@ expression parser away from anything but a short unit text.
 
 from __future__ import annotations
 
+import contextlib
 import functools
 import math
+import os
 import re
+import shutil
+import sys
+import tempfile
 from dataclasses import dataclass
+from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
 from ignite.errors import UnitError
+from ignite.physics._cache import cache_directory
 
 if TYPE_CHECKING:
     import pint
@@ -151,15 +158,60 @@ _REWRITES: tuple[tuple[re.Pattern[str], str], ...] = (
 
 _registry: pint.UnitRegistry[Any] | None = None
 
+_READY = "complete"
+"""The file that marks a folder of pint's build cache as whole (written last)."""
+
 
 def registry() -> pint.UnitRegistry[Any]:
-    """The project's pint registry, built on first use (never pint's default registry)."""
+    """The project's pint registry, built on first use (never pint's default registry).
+
+    pint keeps what it built from its definition files in a cache folder of its own
+    making (`cache_folder`, keyed there by the files' bytes); ignite gives it a folder in
+    the user's cache directory (`ignite.physics._cache.cache_directory`) named for the
+    versions of Python and pint. That folder is filled in a private folder and moved into
+    place whole, so a process never reads a half-written file; any failure, or
+    `IGNITE_NO_CACHE=1`, builds the registry without it. Deleting the folder is safe.
+    """
     global _registry
     if _registry is None:
         import pint
 
-        _registry = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+        _registry = _cached_registry(pint) or pint.UnitRegistry(
+            autoconvert_offset_to_baseunit=False
+        )
     return _registry
+
+
+def _cached_registry(pint: Any) -> pint.UnitRegistry[Any] | None:
+    """The registry built through pint's own build cache, or None when that cannot be used."""
+    directory = cache_directory()
+    if directory is None:
+        return None
+    folder = directory / f"pint-{pint.__version__}-py{sys.version_info[0]}.{sys.version_info[1]}"
+    try:
+        if (folder / _READY).is_file():
+            return pint.UnitRegistry(autoconvert_offset_to_baseunit=False, cache_folder=folder)
+        directory.mkdir(parents=True, exist_ok=True)
+        with tempfile.TemporaryDirectory(prefix=".tmp-pint-", dir=directory) as scratch:
+            staging = Path(scratch) / "cache"
+            staging.mkdir()
+            built = pint.UnitRegistry(autoconvert_offset_to_baseunit=False, cache_folder=staging)
+            (staging / _READY).write_text(pint.__version__, encoding="utf-8")
+            with contextlib.suppress(OSError):  # another process got there first: fine
+                os.rename(staging, folder)
+        return built
+    except Exception:  # a cache that cannot be read or written is only a missed shortcut
+        _set_aside(folder)
+        return None
+
+
+def _set_aside(folder: Path) -> None:
+    """Move a build cache that could not be used out of the way: the next run fills it again."""
+    with contextlib.suppress(OSError):
+        if folder.is_dir():
+            aside = Path(tempfile.mkdtemp(prefix=".tmp-pint-stale-", dir=folder.parent))
+            os.rename(folder, aside / "cache")
+            shutil.rmtree(aside, ignore_errors=True)
 
 
 def noun(dimension: str) -> str:

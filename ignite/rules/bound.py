@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 @dataclass(frozen=True)
 class SourcedValue:
-    """A threshold with where it comes from (`flag`: published, memory, common practice, assumption)."""
+    """A threshold with where it comes from (`flag`: published, to confirm, common practice, assumption)."""
 
     value: float
     source: str

@@ -6,24 +6,54 @@ declared in `SCHEMAS`. A quantity field may be a plain string with a unit (cover
 entry's source and flag) or a mapping `{value, source, flag}` of its own. The loader
 rejects unknown keys, duplicate identifiers, unknown result names and incompatible units,
 collects every problem, and raises `RuleFileError` naming file and line.
+
+Provenance flags are read in the words rule files have always used and kept in the words
+a signed form shows (`FLAG_WORDS`: `memory` is read as `to confirm`).
+
+A parsed rule book is kept on disk between runs (`ignite.physics._cache`: the user's
+cache folder, atomic writes, safe to delete, `IGNITE_NO_CACHE=1` turns it off), keyed by
+the rule files' names and bytes, the results the checks may read, the source of the code
+that parses them and the versions of Python, PyYAML and pint. A hit holds exactly what
+parsing the files again would give.
 """
 
 from __future__ import annotations
 
 import hashlib
 import math
+import sys
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
 from ignite.errors import Problem, RuleFileError, UnitError
+from ignite.physics import _cache
 from ignite.records.results import SEVERITIES
 from ignite.room.source import load_yaml
 from ignite.room.units import parse_any, parse_quantity
 from ignite.wording import sentences
 
-FLAGS = ("published", "memory", "common practice", "assumption")
+FLAGS = ("published", "to confirm", "common practice", "assumption")
+"""The provenance flags, in the words every output shows (the worksheet, the table, JSON)."""
+
+FLAG_WORDS = {"memory": "to confirm"}
+"""Older flag words a rule file may still use, and the word each is shown as."""
+
+ACCEPTED_FLAGS = (*FLAGS, *FLAG_WORDS)
+"""Every flag a rule file may write."""
+
+
+def flag_word(written: str) -> str | None:
+    """The flag as shown, for a flag as written in a rule file; None for an unknown one.
+
+    >>> flag_word("memory"), flag_word("published"), flag_word("remembered")
+    ('to confirm', 'published', None)
+    """
+    shown = FLAG_WORDS.get(written, written)
+    return shown if shown in FLAGS else None
+
+
 TESTS = ("above", "at-or-above", "below", "at-or-below", "is-true")
 WINDOW_LIMITS = ("low", "high", "mean_low", "system_high", "walking_voltage_high")
 
@@ -42,7 +72,7 @@ _COMMON = {
     "id": Spec("text", required=True),
     "title": Spec("text", required=True),
     "source": Spec("text", required=True),
-    "flag": Spec("choice", required=True, choices=FLAGS),
+    "flag": Spec("choice", required=True, choices=ACCEPTED_FLAGS),
     "note": Spec("text"),
 }
 
@@ -184,7 +214,29 @@ def default_rules_dir() -> Path:
     return package / "_rules"
 
 
-_cache: dict[Path, Rulebook] = {}
+_books: dict[tuple[Path, str], Rulebook] = {}
+
+CACHE_KIND = "rulebook"
+_CODE = ("rules/rulebook.py", "room/units.py", "room/source.py", "records/results.py")
+"""Source files (under ignite/) whose code decides what a parsed rule book holds."""
+
+
+def _cache_versions() -> _cache.Versions:
+    """What a cached rule book depends on besides the rule files and the known results."""
+    import pint
+    import yaml
+
+    package = Path(__file__).resolve().parents[1]
+    code = hashlib.sha256()
+    for name in _CODE:
+        code.update(name.encode() + b"\0" + (package / name).read_bytes() + b"\0")
+    return (
+        ("format", "1"),
+        ("code", code.hexdigest()),
+        ("python", f"{sys.version_info[0]}.{sys.version_info[1]}"),
+        ("pyyaml", str(yaml.__version__)),
+        ("pint", str(pint.__version__)),
+    )
 
 
 def load_rulebook(
@@ -197,17 +249,39 @@ def load_rulebook(
     checks reading an unknown result, or with a limit of another dimension, are rejected.
     """
     directory = (directory or default_rules_dir()).resolve()
-    if directory in _cache:
-        return _cache[directory]
-    problems: list[Problem] = []
-    entries: dict[str, Entry] = {}
-    digest = hashlib.sha256()
     files = sorted(directory.glob("*.yaml")) if directory.is_dir() else []
     if not files:
         raise RuleFileError([Problem(str(directory), None, "", "no rule files (*.yaml) found")])
-    for path in files:
-        raw = path.read_bytes()
+    raws = [(path, path.read_bytes()) for path in files]
+    digest = hashlib.sha256()
+    for path, raw in raws:
         digest.update(path.name.encode() + b"\0" + raw + b"\0")
+    known = None if known_results is None else tuple(sorted(known_results.items()))
+    key = (str(directory), digest.hexdigest(), known)
+    memo_key = (directory, repr(key))
+    if memo_key in _books:
+        return _books[memo_key]
+    versions = _cache_versions()
+    kept = _cache.load(CACHE_KIND, key, lambda found: isinstance(found, Rulebook), versions)
+    if kept is not None:
+        _books[memo_key] = kept
+        return kept  # type: ignore[no-any-return]
+    book = _parse(directory, raws, digest.hexdigest(), known_results)
+    _cache.store(CACHE_KIND, key, book, versions)
+    _books[memo_key] = book
+    return book
+
+
+def _parse(
+    directory: Path,
+    raws: list[tuple[Path, bytes]],
+    digest: str,
+    known_results: Mapping[str, str] | None,
+) -> Rulebook:
+    """Parse and check the rule files' bytes; raise RuleFileError listing every problem."""
+    problems: list[Problem] = []
+    entries: dict[str, Entry] = {}
+    for path, raw in raws:
         for entry in _load_file(path, raw, problems):
             if entry.id in entries:
                 first = entries[entry.id]
@@ -224,9 +298,7 @@ def load_rulebook(
     _cross_check(entries, known_results, problems)
     if problems:
         raise RuleFileError(problems)
-    book = Rulebook(directory, entries, digest.hexdigest())
-    _cache[directory] = book
-    return book
+    return Rulebook(directory, entries, digest)
 
 
 def _load_file(path: Path, raw: bytes, problems: list[Problem]) -> Iterable[Entry]:
@@ -308,14 +380,14 @@ def _load_entry(
     if len(problems) > before:
         return None
     entry_source = str(item["source"])
-    entry_flag = str(item["flag"])
-    if entry_flag not in FLAGS:
+    entry_flag = flag_word(str(item["flag"]))
+    if entry_flag is None:
         problems.append(
             Problem(
                 name,
                 lines.get(f"{where}.flag", line),
                 f"{where}.flag",
-                f"expected one of {FLAGS}, got {entry_flag!r}",
+                f"expected one of {ACCEPTED_FLAGS}, got {str(item['flag'])!r}",
             )
         )
         return None
@@ -368,9 +440,11 @@ def _read_field(spec: Spec, raw: Any, source: str, flag: str) -> Any:
             extra = set(raw) - {"value", "source", "flag"}
             if extra or "value" not in raw:
                 raise _FieldError("expected {value, source, flag} or a value with a unit")
-            own_flag = str(raw.get("flag", flag))
-            if own_flag not in FLAGS:
-                raise _FieldError(f"flag must be one of {FLAGS}, got {own_flag!r}")
+            own_flag = flag_word(str(raw.get("flag", flag)))
+            if own_flag is None:
+                raise _FieldError(
+                    f"flag must be one of {ACCEPTED_FLAGS}, got {str(raw.get('flag'))!r}"
+                )
             value, dim = _quantity(raw["value"], spec.dimension)
             return Sourced(value, str(raw["value"]), str(raw.get("source", source)), own_flag, dim)
         value, dim = _quantity(raw, spec.dimension)

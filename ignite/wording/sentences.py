@@ -103,7 +103,7 @@ CAUTIONS = (
     CAUTION_LABEL_MINIMUM + " A computed drying time shorter than the label never shortens "
     "the wait; a longer one lengthens it.",
     "Skin-model trials are recalled to have found prep visibly dry after about 40 to 60 s, "
-    "yet fires still occurred after 3 min in some of them (memory: to be confirmed): a film "
+    "yet fires still occurred after 3 min in some of them (to confirm): a film "
     "that looks dry is no proof that it is. The computed drying time errs long (the film is "
     "cooled by its own evaporation, its vapour is heavier than air, the skin's stored heat "
     "is left out), and it never shortens the label's wait.",
@@ -1393,7 +1393,7 @@ def triad_sides(oxidant: bool, fuel: bool, ignition: bool) -> str:
 ELECTRICAL_CAUTION = (
     "The electrical figures support, and never replace, the local electrical code, the "
     "manufacturer's instructions and the judgement of a qualified electrical or biomedical "
-    "engineer. The limits are recalled (flag: memory) until checked against the edition of "
+    "engineer. The limits are recalled (flag: to confirm) until checked against the edition of "
     "IEC 60364-7-710, IEC 60601-1 and IEC 62353 in force; currents to the heart are summed "
     "in phase, the largest they can add up to."
 )
@@ -1665,3 +1665,15 @@ def electrical_section_intro(purpose: str) -> str:
         "The supply, the bonding and the equipment of the patient environment, and for each "
         "case given the current that can reach the heart through a central line or pacing wires."
     )
+
+
+# --- names a room file may use; provenance flags (cli: `ignite rules`, issue 15) ------
+NAMES_HEADING = (
+    "Names a room file may use, by category (any case), with the keys that take them; "
+    "`ignite rules NAME` shows the entry a name reaches."
+)
+NAMES_FOOTWEAR_NOTE = "or a measured resistance through the soles, e.g. 40 MΩ"
+NAMES_SUBSTANCES_NOTE = (
+    "any substance the chemicals tables know is accepted, by common name or CAS number; "
+    "these have ignition data in rules/"
+)

@@ -27,31 +27,31 @@ from ignite.physics.electrical import (
 
 STANDARD_VALUES = [
     # (rule id, value in SI, flag, words the source must name)
-    # IEC 60364-7-710, 710.415.2.2: bonding of group 2 locations ≤ 0.2 Ω (memory)
-    ("electrical.bonding_resistance_max", 0.2, "memory", "710.415.2.2"),
-    # IEC 60364-7-710: the IT supply's insulation monitor alarms at 50 kΩ or above (memory)
-    ("electrical.imd_alarm_min", 50e3, "memory", "IEC 60364-7-710"),
-    # IEC 60601-1:2005+A1:2012 Table 3: earth leakage 5 mA NC, 10 mA SFC (memory)
-    ("iec60601.earth_leakage_normal", 5e-3, "memory", "Table 3"),
-    ("iec60601.earth_leakage_single_fault", 10e-3, "memory", "Table 3"),
-    # IEC 60601-1 Table 3: touch current 100 µA NC, 500 µA SFC (memory)
-    ("iec60601.touch_current_normal", 100e-6, "memory", "Table 3"),
-    ("iec60601.touch_current_single_fault", 500e-6, "memory", "Table 3"),
-    # IEC 60601-1 Table 3: patient leakage (a.c.), B and BF 100 µA NC, 500 µA SFC (memory)
-    ("patient.leakage_b_normal", 100e-6, "memory", "Table 3"),
-    ("patient.leakage_b_single_fault", 500e-6, "memory", "Table 3"),
-    # IEC 60601-1 Table 3: patient leakage (a.c.), CF 10 µA NC, 50 µA SFC (memory)
-    ("patient.leakage_cf_normal", 10e-6, "memory", "Table 3"),
-    ("patient.leakage_cf_single_fault", 50e-6, "memory", "Table 3"),
+    # IEC 60364-7-710, 710.415.2.2: bonding of group 2 locations ≤ 0.2 Ω (memory: flag `to confirm`)
+    ("electrical.bonding_resistance_max", 0.2, "to confirm", "710.415.2.2"),
+    # IEC 60364-7-710: the IT supply's insulation monitor alarms at 50 kΩ or above (memory: flag `to confirm`)
+    ("electrical.imd_alarm_min", 50e3, "to confirm", "IEC 60364-7-710"),
+    # IEC 60601-1:2005+A1:2012 Table 3: earth leakage 5 mA NC, 10 mA SFC (memory: flag `to confirm`)
+    ("iec60601.earth_leakage_normal", 5e-3, "to confirm", "Table 3"),
+    ("iec60601.earth_leakage_single_fault", 10e-3, "to confirm", "Table 3"),
+    # IEC 60601-1 Table 3: touch current 100 µA NC, 500 µA SFC (memory: flag `to confirm`)
+    ("iec60601.touch_current_normal", 100e-6, "to confirm", "Table 3"),
+    ("iec60601.touch_current_single_fault", 500e-6, "to confirm", "Table 3"),
+    # IEC 60601-1 Table 3: patient leakage (a.c.), B and BF 100 µA NC, 500 µA SFC (memory: flag `to confirm`)
+    ("patient.leakage_b_normal", 100e-6, "to confirm", "Table 3"),
+    ("patient.leakage_b_single_fault", 500e-6, "to confirm", "Table 3"),
+    # IEC 60601-1 Table 3: patient leakage (a.c.), CF 10 µA NC, 50 µA SFC (memory: flag `to confirm`)
+    ("patient.leakage_cf_normal", 10e-6, "to confirm", "Table 3"),
+    ("patient.leakage_cf_single_fault", 50e-6, "to confirm", "Table 3"),
     # IEC 62353:2014 Table 2: equipment leakage, direct or differential method,
-    # class I 500 µA, class II 100 µA (memory)
-    ("iec62353.equipment_leakage_class_i", 500e-6, "memory", "IEC 62353"),
-    ("iec62353.equipment_leakage_class_ii", 100e-6, "memory", "IEC 62353"),
-    # IEC 62353:2014 Table 2: applied part leakage, BF 5000 µA, CF 50 µA (memory)
-    ("iec62353.applied_part_leakage_bf", 5000e-6, "memory", "IEC 62353"),
-    ("iec62353.applied_part_leakage_cf", 50e-6, "memory", "IEC 62353"),
-    # IEC 60601-1 16.6.1: ME system touch current in the patient environment 100 µA NC (memory)
-    ("me_system.touch_current_normal", 100e-6, "memory", "16.6.1"),
+    # class I 500 µA, class II 100 µA (memory: flag `to confirm`)
+    ("iec62353.equipment_leakage_class_i", 500e-6, "to confirm", "IEC 62353"),
+    ("iec62353.equipment_leakage_class_ii", 100e-6, "to confirm", "IEC 62353"),
+    # IEC 62353:2014 Table 2: applied part leakage, BF 5000 µA, CF 50 µA (memory: flag `to confirm`)
+    ("iec62353.applied_part_leakage_bf", 5000e-6, "to confirm", "IEC 62353"),
+    ("iec62353.applied_part_leakage_cf", 50e-6, "to confirm", "IEC 62353"),
+    # IEC 60601-1 16.6.1: ME system touch current in the patient environment 100 µA NC (memory: flag `to confirm`)
+    ("me_system.touch_current_normal", 100e-6, "to confirm", "16.6.1"),
     # microshock: 10 µA through a direct cardiac path, normal condition (common practice)
     ("microshock.limit", 10e-6, "common practice", "common practice"),
     # microshock: about 100 µA through a direct cardiac path can cause ventricular
@@ -68,7 +68,7 @@ def test_rule_values_are_the_standards(book, rule, value, flag, named):
     assert entry.get("value") == pytest.approx(value)
     assert entry.flag == flag
     assert named in entry.source
-    if flag == "memory":  # a recalled value says where to confirm it
+    if flag == "to confirm":  # a recalled value says where to confirm it
         assert "confirm" in entry.source
 
 
