@@ -739,3 +739,24 @@ def test_the_time_limit_must_be_positive(site: Path, tmp_path: Path) -> None:
         main, ["audit", str(site), "-o", str(tmp_path / "o"), "--room-timeout", "0"]
     )
     assert result.exit_code == 2
+
+
+def test_the_audit_summary_has_its_own_sign_off(tmp_path):
+    from pypdf import PdfReader
+
+    from ignite.wording import sentences
+
+    site = tmp_path / "site"
+    site.mkdir()
+    sample = Path(__file__).resolve().parent.parent / "sample_rooms"
+    (site / "r.yaml").write_bytes((sample / "recommissioning-refurbished.yaml").read_bytes())
+    out = tmp_path / "out"
+    CliRunner().invoke(main, ["audit", str(site), "-o", str(out), "--jobs", "1"])
+    reader = PdfReader(str(out / "audit-summary.pdf"))
+    text = " ".join(" ".join(page.extract_text() for page in reader.pages).split())
+    assert sentences.SIGN_OFF_SUMMARY_HEADING in text
+    assert sentences.SIGN_OFF_SUMMARY_PROMPT in text
+    for decision in sentences.SIGN_OFF_SUMMARY_DECISIONS:
+        assert decision in text
+    for role in sentences.SIGN_OFF_ROLES:
+        assert role in text

@@ -137,3 +137,12 @@ def test_every_method_of_the_worksheet_has_a_paragraph_with_source_and_flag():
 def test_readme_links_the_docs():
     readme = (ROOT / "README.md").read_text(encoding="utf-8")
     assert "docs/room-file.md" in readme and "docs/methods.md" in readme
+
+
+def test_readme_and_room_file_page_show_page_one_of_the_sample_list_plan():
+    image = DOCS / "images" / "page-one.png"
+    assert image.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+    assert image.stat().st_size < 200_000  # kept small (60 dpi)
+    assert "docs/images/page-one.png" in (ROOT / "README.md").read_text(encoding="utf-8")
+    assert "images/page-one.png" in (DOCS / "room-file.md").read_text(encoding="utf-8")
+    assert (DOCS / "make_page_one.py").exists()

@@ -782,6 +782,7 @@ def flag_meaning(flag: str) -> str:
     return f"{flag}: {FLAG_MEANINGS.get(flag, 'provenance as stated in the rule file')}"
 
 
+SIGN_OFF_SUMMARY_HEADING = "Sign-off of the audit"
 SIGN_OFF_SUMMARY_PROMPT = "Decision on this audit (tick one):"
 SIGN_OFF_SUMMARY_DECISIONS = (
     "The rooms may be used as they are",

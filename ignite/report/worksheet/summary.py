@@ -207,8 +207,33 @@ def render_summary(report: AuditReport) -> bytes:
     story += _worst_findings(report, width, st)
     if report.previous is not None:
         story += _changes(report, width, st)
+    story += _sign_off(width, st)
     doc.build(story, canvasmaker=_canvas_maker(report, folder_name))
     return buffer.getvalue()
+
+
+def _sign_off(width: float, st: dict[str, ParagraphStyle]) -> list[Any]:
+    """The audit's own decision and signatures, kept on one page."""
+    from reportlab.platypus import KeepTogether
+
+    rows: list[list[Any]] = [[_p(h, st["cell"]) for h in sentences.SIGN_OFF_HEADERS]]
+    rows += [[_p(role, st["cell"]), "", "", ""] for role in sentences.SIGN_OFF_ROLES]
+    heights = [None, *[28.0] * len(sentences.SIGN_OFF_ROLES)]  # room to sign
+    signatures = _table(rows, [width * w for w in (0.18, 0.32, 0.32, 0.18)], heights=heights)
+    decisions = [
+        _p(f"{sentences.TICK_BOX} {decision}", st["body"])
+        for decision in sentences.SIGN_OFF_SUMMARY_DECISIONS
+    ]
+    return [
+        KeepTogether(
+            [
+                _p(sentences.SIGN_OFF_SUMMARY_HEADING, st["h2"]),
+                _p(sentences.SIGN_OFF_SUMMARY_PROMPT, st["body"]),
+                *decisions,
+                signatures,
+            ]
+        )
+    ]
 
 
 def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
@@ -242,7 +267,12 @@ def _canvas_maker(report: AuditReport, folder_name: str) -> Any:
     return SummaryCanvas
 
 
-def _table(rows: list[list[Any]], widths: Sequence[float], header: bool = True) -> Any:
+def _table(
+    rows: list[list[Any]],
+    widths: Sequence[float],
+    header: bool = True,
+    heights: Sequence[float | None] | None = None,
+) -> Any:
     from reportlab.lib import colors
     from reportlab.platypus import TableStyle
 
@@ -263,7 +293,9 @@ def _table(rows: list[list[Any]], widths: Sequence[float], header: bool = True) 
             ("BACKGROUND", (0, 0), (-1, 0), colors.Color(0.9, 0.9, 0.9)),
             ("LINEBELOW", (0, 0), (-1, 0), 0.8, colors.black),
         ]
-    table = SplitTable(rows, colWidths=list(widths), repeatRows=1 if header else 0)
+    table = SplitTable(
+        rows, colWidths=list(widths), rowHeights=heights, repeatRows=1 if header else 0
+    )
     table.setStyle(TableStyle(style))
     return table
 
