@@ -606,7 +606,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
             ]
         )
     )
-    story += [_p(say.HEADING_FLOOR_AND_SHOCK, st["h3"]), pair]
+    story += [KeepTogether([_p(say.HEADING_FLOOR_AND_SHOCK, st["h3"]), pair])]
     if view.shock_note:
         story.append(Spacer(1, 3))
         story.append(_p(view.shock_note, st["small"]))
