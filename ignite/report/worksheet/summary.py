@@ -480,7 +480,14 @@ def _worst_findings(report: AuditReport, width: float, st: dict[str, ParagraphSt
     table: list[list[Any]] = [
         [
             _p(h, cell)
-            for h in ("Severity", "Room", "Finding", "Subject", "Value (measured or computed)", "Against limit")
+            for h in (
+                "Severity",
+                "Room",
+                "Finding",
+                "Subject",
+                "Value (measured or computed)",
+                "Against limit",
+            )
         ]
     ]
     for item in shown:
