@@ -78,6 +78,7 @@ CSV_COLUMNS = (
     "change_since_previous",
     "tool_version",
     "rules_sha256",
+    "worst_probability",
 )
 """The register's CSV header. List cells: readings and point numbers joined by "; ",
 findings, warnings and problems one a line ("rule | severity | subject" for findings)."""
@@ -386,6 +387,7 @@ def register_csv(report: AuditReport) -> bytes:
             "change_since_previous": change.text if change else "",
             "tool_version": report.tool_version,
             "rules_sha256": report.rules_digest,
+            "worst_probability": _number(row.worst_probability),
         }
         for severity in SEVERITIES:
             cells[severity] = str(row.count(severity)) if row.assessed else ""
@@ -425,6 +427,7 @@ def register_record(report: AuditReport) -> dict[str, Any]:
                 "warnings": list(row.warnings),
                 "problems": list(row.problems),
                 "change_since_previous": change_record(change) if change else None,
+                "worst_probability": row.worst_probability,
             }
         )
     previous = report.previous
@@ -530,6 +533,7 @@ def _rows_from_json(text: str) -> tuple[list[RegisterRow], str, str]:
                 worksheet_sha256=str(room.get("worksheet_sha256") or ""),
                 warnings=tuple(room.get("warnings") or ()),
                 problems=tuple(room.get("problems") or ()),
+                worst_probability=_optional_float(room.get("worst_probability")),
             )
         )
     return rows, str(record.get("tool_version", "")), str(record.get("rules_sha256", ""))
@@ -574,6 +578,7 @@ def _rows_from_csv(text: str) -> tuple[list[RegisterRow], str, str]:
                 worksheet_sha256=cells.get("worksheet_sha256") or "",
                 warnings=tuple(_split(cells.get("warnings"), "\n")),
                 problems=tuple(_split(cells.get("problems"), "\n")),
+                worst_probability=_optional_float(cells.get("worst_probability") or None),
             )
         )
         version = version or cells.get("tool_version") or ""

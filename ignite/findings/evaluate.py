@@ -10,7 +10,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 from dataclasses import replace
 
-from ignite.findings import cases, charge, floor  # noqa: F401  (they register their results)
+from ignite.findings import cases, charge, floor, spread  # noqa: F401  (they register their results)
 from ignite.findings.registry import RESULTS, Context, Scope
 from ignite.records.results import Amount, Finding, Results, severity_rank
 from ignite.rules.bound import Bound, BoundCheck, BoundLimit

@@ -81,6 +81,9 @@ class RegisterRow:
     worksheet_sha256: str = ""
     warnings: tuple[str, ...] = ()
     problems: tuple[str, ...] = ()
+    # the largest probability of a hazard over the spread of the room's ranges; None when
+    # the room was not assessed with ranges
+    worst_probability: float | None = None
 
     @property
     def assessed(self) -> bool:
@@ -144,6 +147,9 @@ def row_from_results(
         worksheet_sha256=worksheet_sha256,
         warnings=tuple(results.warnings),
         problems=tuple(problems),
+        worst_probability=(
+            results.uncertainty.worst_probability if results.uncertainty is not None else None
+        ),
     )
 
 
