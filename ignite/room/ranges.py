@@ -143,8 +143,9 @@ def parse_range(
         low, high = _pair(left, right, dimension, text)
         if low > high:
             raise RangeError(f"got {describe(text)}: the low end is above the high end")
-        centre = float(f"{0.5 * (low + high):.15g}")  # "8 to 12 mL" is 10 mL, as written
-        return Distribution("uniform", centre, low, high, text=text)
+        return Distribution(
+            "uniform", _midpoint(left, right, dimension, low, high), low, high, text=text
+        )
     left, right = _PLUS_MINUS.split(text, maxsplit=1)
     mean = _quantity(left, dimension, text)
     spread = _difference(left, right, dimension, text)
@@ -166,6 +167,28 @@ def _pair(left: str, right: str, dimension: str, whole: str) -> tuple[float, flo
     if number_and_unit(left.strip()) is None and found is not None:
         left = f"{left.strip()} {found[1]}"
     return _quantity(left, dimension, whole), _quantity(right, dimension, whole)
+
+
+def _midpoint(left: str, right: str, dimension: str, low: float, high: float) -> float:
+    """The middle of 'A to B' read as the file would write it ('6 to 10 L/min' is exactly
+    what '8 L/min' reads as), else the middle of the SI ends."""
+    found_left, found_right = number_and_unit(left.strip()), number_and_unit(right.strip())
+    unit = found_right[1] if found_right else ""
+    if found_right and (found_left is None or found_left[1] == unit):
+        number = split_number(left.strip()) if found_left is None else found_left[0]
+        if number is not None:
+            try:
+                return parse_quantity(f"{0.5 * (number + found_right[0])!r} {unit}", dimension)
+            except UnitError:
+                pass
+    return float(f"{0.5 * (low + high):.15g}")
+
+
+def split_number(text: str) -> float | None:
+    try:
+        return float(text.replace("\u2212", "-"))
+    except ValueError:
+        return None
 
 
 def _difference(centre: str, spread: str, dimension: str, whole: str) -> float:
@@ -246,5 +269,7 @@ class Sampling:
         return room_has_ranges or self.samples is not None
 
 
-DEFAULT_SAMPLES = 1000
-"""Samples drawn when `--samples` is not given."""
+DEFAULT_SAMPLES = 100
+"""Samples drawn when `--samples` is not given. The batch drying solver takes some 10-20 s
+per case at this count (a case with a flammable prep) (tests/benchmark.py); `--samples 1000` narrows the percentiles'
+sampling error at five times the cost."""

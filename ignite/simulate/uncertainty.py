@@ -44,10 +44,12 @@ from ignite.records.results import (
 from ignite.room.model import Case, Footwear, Room
 from ignite.room.ranges import DEFAULT_SAMPLES, Distribution, Sampling, sampling_seed
 from ignite.rules.bound import Bound, Fuel
+from ignite.simulate.batch import BatchInputs, batch_supported, dry_batch
 from ignite.simulate.cases import case_fuels, lowest_mie, preparations, site_oxygen
 from ignite.simulate.cases import prep_drying as case_drying
 from ignite.simulate.charge import Charging, person_charge, trolley_charge
 from ignite.simulate.drying import PrepOutcome
+from ignite.simulate.preparation import PreparationAnalysis
 from ignite.wording import sentences
 
 if TYPE_CHECKING:
@@ -360,8 +362,6 @@ def _case_spread(
     washout, at_activation, mie = [], [], []
     curve_times = [t for t, _ in nominal.oxygen_curve]
     oxygen_curves = []
-    dried: dict[tuple[Any, ...], PrepOutcome | None] = {}
-    outcomes: list[PrepOutcome | None] = []
     for room, sampled in samples:
         case = room.cases[index]
         site = site_oxygen(case, sampled)
@@ -370,11 +370,6 @@ def _case_spread(
         found, _ = lowest_mie(case_fuels(case, sampled), site.at_activation, ambient)
         mie.append(math.nan if found is None else found)
         oxygen_curves.append(_oxygen_at(site.steady, case, sampled, curve_times))
-        key = _drying_key(case, room, sampled)
-        if key not in dried:
-            result = case_drying(case, room, sampled, analyses)
-            dried[key] = result[0] if result else None
-        outcomes.append(dried[key])
 
     figures: dict[str, Array] = {
         "washout_s": np.array(washout),
@@ -388,20 +383,22 @@ def _case_spread(
         hit = np.where(np.isnan(mie_values), False, largest_spark >= mie_values)
         probabilities["spark_above_site_mie"] = float(np.mean(hit))
     film_band: tuple[tuple[float, float, float], ...] = ()
-    if nominal.prep_flammable and bound.prep is not None and all(outcomes):
-        runs = [o for o in outcomes if o is not None]
-        figures["drying_time_s"] = np.array([o.drying_time_s for o in runs])
-        figures["safe_draping_after_s"] = np.array([o.safe_draping_after_s for o in runs])
-        figures["pocket_vapour_peak_fraction_of_lfl"] = np.array(
-            [o.pocket_peak_fraction_of_lfl for o in runs]
+    dried = _dried(index, nominal, samples, bound, analyses)
+    if dried is not None and bound.prep is not None:
+        figures.update(
+            {
+                "drying_time_s": dried.drying,
+                "safe_draping_after_s": dried.safe,
+                "pocket_vapour_peak_fraction_of_lfl": dried.peak,
+            }
         )
-        left = np.array([o.flammable_left_at_activation_fraction for o in runs])
-        peaks = figures["pocket_vapour_peak_fraction_of_lfl"]
-        probabilities["prep_wet_at_activation"] = float(np.mean(left > bound.prep.dry_fraction))
+        probabilities["prep_wet_at_activation"] = float(
+            np.mean(dried.left_at_activation > bound.prep.dry_fraction)
+        )
         probabilities["pocket_above_margin_at_draping"] = float(
-            np.mean(peaks > bound.prep.pocket_margin)
+            np.mean(dried.peak > bound.prep.pocket_margin)
         )
-        film_band = _film_band(nominal.film_curve, runs)
+        film_band = dried.film_band
     decisions = {"stop_oxygen_at_least_s": _at_least(figures["washout_s"], confidence)}
     if "safe_draping_after_s" in figures:
         decisions["drape_no_earlier_than_s"] = _at_least(
@@ -436,6 +433,127 @@ def _case_spread(
             )
         ),
         film_band=film_band,
+    )
+
+
+@dataclass(frozen=True)
+class _Dried:
+    """A case's drying figures over the samples (arrays (S,)) and the film chart's band."""
+
+    drying: Array
+    safe: Array
+    peak: Array
+    left_at_activation: Array
+    film_band: tuple[tuple[float, float, float], ...]
+    solver: str  # "scalar" | "batch"
+
+
+SCALAR_SOLVES = 8
+"""Up to this many distinct sets of drying inputs over the samples, each is solved by the
+scalar solver (`ignite.simulate.drying`, exact: ranges of zero width give the nominal
+figures); more, and the batch solver takes every sample at once."""
+
+BATCH_MARGIN = 0.02
+"""The batch solver's times (drying, safe draping) and the liquid it leaves at activation
+are moved this share later and wetter, its pocket peaks this share higher: it agrees with
+the scalar solver within 1 % on the cases of tests/simulate/test_batch.py, and the margin
+makes any disagreement err on the safe side."""
+
+
+def _dried(
+    index: int,
+    nominal: CaseResult,
+    samples: Sequence[tuple[Room, Bound]],
+    bound: Bound,
+    analyses: dict[str, Any],
+) -> _Dried | None:
+    """The case's prep over the samples: by the scalar solver per distinct set of drying
+    inputs when there are few, else by the batch solver; None without a flammable prep."""
+    import numpy as np
+
+    case0 = samples[0][0].cases[index]
+    if not nominal.prep_flammable or bound.prep is None or case0.prep is None:
+        return None
+    analysis = analyses.get(case0.prep.preparation)
+    if analysis is None:
+        return None
+    keys = [_drying_key(r.cases[index], r, b) for r, b in samples]
+    distinct = dict.fromkeys(keys)
+    if len(distinct) > SCALAR_SOLVES and batch_supported(analysis):
+        return _batch(index, nominal, samples, analysis)
+    found: dict[tuple[Any, ...], PrepOutcome] = {}
+    for key, (room, sampled) in zip(keys, samples, strict=True):
+        if key not in found:
+            result = case_drying(room.cases[index], room, sampled, analyses)
+            if result is None:
+                return None
+            found[key] = result[0]
+    runs = [found[key] for key in keys]
+    return _Dried(
+        drying=np.array([o.drying_time_s for o in runs]),
+        safe=np.array([o.safe_draping_after_s for o in runs]),
+        peak=np.array([o.pocket_peak_fraction_of_lfl for o in runs]),
+        left_at_activation=np.array([o.flammable_left_at_activation_fraction for o in runs]),
+        film_band=_film_band(nominal.film_curve, runs),
+        solver="scalar",
+    )
+
+
+def _batch(
+    index: int,
+    nominal: CaseResult,
+    samples: Sequence[tuple[Room, Bound]],
+    analysis: PreparationAnalysis,
+) -> _Dried:
+    import numpy as np
+
+    def each(read: Any) -> Array:
+        return np.array([float(read(r.cases[index], r, b)) for r, b in samples])
+
+    first = samples[0][0].cases[index].prep
+    assert first is not None
+    prep0 = samples[0][1].prep
+    assert prep0 is not None
+    given = BatchInputs(
+        volume=each(lambda c, r, b: c.prep.volume),
+        area=each(lambda c, r, b: c.prep.area),
+        skin_temperature=each(
+            lambda c, r, b: c.prep.skin_temperature or b.prep.skin_temperature_default
+        ),
+        air_temperature=each(lambda c, r, b: r.environment.temperature),
+        relative_humidity=each(lambda c, r, b: r.environment.relative_humidity),
+        air_speed=each(lambda c, r, b: c.air_speed),
+        draping_after=each(lambda c, r, b: c.draping_after),
+        first_activation_after=each(lambda c, r, b: c.first_activation_after),
+        pocket_volume=each(lambda c, r, b: c.drape_pocket.volume),
+        pocket_exchange=each(lambda c, r, b: c.drape_pocket.exchange),
+        hair_still_layer=each(lambda c, r, b: b.prep.hair_still_layer),
+        hair_exposed_fraction=each(lambda c, r, b: b.prep.hair_exposed_fraction),
+        pooling_volume_fraction=each(lambda c, r, b: b.prep.pooling_volume_fraction),
+        pooling_area_fraction=each(lambda c, r, b: b.prep.pooling_area_fraction),
+        tissue_conductance=each(lambda c, r, b: b.prep.tissue_conductance),
+        hair=first.hair,
+        pooling=first.pooling,
+    )
+    out = dry_batch(analysis, given, prep0)
+    later = 1.0 + BATCH_MARGIN
+    times = np.array([t for t, _ in nominal.film_curve])
+    film_band: tuple[tuple[float, float, float], ...] = ()
+    if len(times):
+        curves = np.minimum(out.left_on(times) * later, 1.0)
+        film_band = tuple(
+            (float(t), float(lo), float(hi))
+            for t, lo, hi in zip(
+                times, _quantiles(curves, 0.05), _quantiles(curves, 0.95), strict=True
+            )
+        )
+    return _Dried(
+        drying=out.drying_time_s * later,
+        safe=out.safe_draping_after_s * later,
+        peak=out.pocket_peak * later,
+        left_at_activation=np.minimum(out.left_at_activation * later, 1.0),
+        film_band=film_band,
+        solver="batch",
     )
 
 
