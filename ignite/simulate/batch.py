@@ -391,19 +391,49 @@ class _Batch:
         if fastest:
             warm = np.maximum(self.skin, self.air)[:, None] * np.ones_like(total)
             return self._surface(warm, x, far, covered, True)[1]
-        t = self.temperature.copy()
-        warmest = np.maximum(self.skin, self.air)[:, None]
-        for _ in range(30):
-            surplus, _f = self._surface(t, x, far, covered, False)
-            step = 1e-3
-            above, _f = self._surface(t + step, x, far, covered, False)
-            slope = (above - surplus) / step
-            change = np.where(slope < 0.0, -surplus / np.minimum(slope, -1e-9), 0.0)
-            t = np.clip(t + np.clip(change, -5.0, 5.0), 273.2, warmest)
-            if np.all(np.abs(change) < 1e-5):
+        # As the scalar solver: bracket the root from the last temperature, widening
+        # down (and up) until the surplus changes sign, so the same root is found where
+        # buoyancy gives the balance more than one; then regula falsi (Illinois).
+        guess = self.temperature
+        low, high = guess - 0.5, guess + 0.5
+        f_low = self._surface(low, x, far, covered, False)[0]
+        step = np.ones_like(guess)
+        for _ in range(12):
+            below = f_low < 0.0
+            if not below.any():
+                break
+            low = np.where(below, np.maximum(low - step, 150.0), low)
+            step = np.where(below, 2.0 * step, step)
+            f_low = np.where(below, self._surface(low, x, far, covered, False)[0], f_low)
+        f_high = self._surface(high, x, far, covered, False)[0]
+        step = np.ones_like(guess)
+        for _ in range(12):
+            above = f_high > 0.0
+            if not above.any():
+                break
+            high = np.where(above, high + step, high)
+            step = np.where(above, 2.0 * step, step)
+            f_high = np.where(above, self._surface(high, x, far, covered, False)[0], f_high)
+        side = np.zeros_like(guess)
+        t = guess
+        for _ in range(40):
+            with np.errstate(divide="ignore", invalid="ignore"):
+                t = np.where(f_low != f_high, (low * f_high - high * f_low) / (f_high - f_low), low)
+            t = np.clip(t, np.minimum(low, high), np.maximum(low, high))
+            f_t = self._surface(t, x, far, covered, False)[0]
+            positive = f_t > 0.0
+            # Illinois: halve the value kept at the end that stays, so both ends move
+            f_high = np.where(positive & (side == 1.0), 0.5 * f_high, f_high)
+            f_low = np.where(~positive & (side == -1.0), 0.5 * f_low, f_low)
+            low = np.where(positive, t, low)
+            f_low = np.where(positive, f_t, f_low)
+            high = np.where(positive, high, t)
+            f_high = np.where(positive, f_high, f_t)
+            side = np.where(positive, 1.0, -1.0)
+            if np.all(high - low < 1e-7):
                 break
         self.temperature = t
-        surplus, found = self._surface(t, x, far, covered, False)
+        _surplus, found = self._surface(t, x, far, covered, False)
         return np.where(total[..., None] > 0.0, found, 0.0)
 
     def rates(
@@ -576,10 +606,7 @@ def _covered(
         left_at = np.where(reached, left, left_at)
         pocket_at = np.where(reached, index, pocket_at)
         gone = left <= dry_fraction * 1e-2
-        if until_peak:
-            finished = gone
-        else:
-            finished = gone & (index < 1e-4)
+        finished = gone if until_peak else gone & (index < 0.0001)
         finished = finished & ~(np.isnan(left_at) & np.isfinite(watch))
         done = done | (active & finished)
         times.append(t.copy())
