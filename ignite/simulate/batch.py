@@ -156,8 +156,9 @@ def _lookup(cas: str, kind: str, temperature: Array) -> Array:
     position = np.clip((temperature - start) / T_GRID, 0.0, len(table) - 1.000001)
     low = np.floor(position).astype(int)
     weight = position - low
-    found = (1.0 - weight) * table[low] + weight * table[low + 1]
-    return np.exp(found) if kind == "psat" else found
+    between = (1.0 - weight) * table[low] + weight * table[low + 1]
+    found: Array = np.exp(between) if kind == "psat" else between
+    return found
 
 
 _GAMMA_NODES: dict[tuple[tuple[str, str], int], Array] = {}
@@ -302,7 +303,8 @@ class _Batch:
         import numpy as np
 
         weights = np.where(self.flammable, self.molar_mass, 0.0)
-        return (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
+        found: Array = (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
+        return found
 
     def left(self, moles: Array) -> Array:
         import numpy as np
@@ -316,7 +318,8 @@ class _Batch:
 
         to_fraction = GAS_CONSTANT * self.air[:, None] / self.pressure
         fractions = np.maximum(concentrations, 0.0) * to_fraction
-        return np.sum(np.where(self.flammable, fractions / self.lfl, 0.0), axis=1)
+        found: Array = np.sum(np.where(self.flammable, fractions / self.lfl, 0.0), axis=1)
+        return found
 
     # -- the liquid surface --------------------------------------------------------------
 
@@ -475,7 +478,8 @@ def _step_size(model: _Batch, moles: Array, change: Array, cap: Array) -> Array:
     thin = liquid < 2.0 * BREAKUP_THICKNESS * model.patch_area
     share = np.where(thin[..., None], np.inf, share)
     stable = STEP_STABLE * share.reshape(model.samples, -1).min(axis=1)
-    return np.clip(np.minimum(np.minimum(accurate, stable), cap), STEP_MIN, STEP_MAX)
+    found: Array = np.clip(np.minimum(np.minimum(accurate, stable), cap), STEP_MIN, STEP_MAX)
+    return found
 
 
 def _heun(
@@ -521,7 +525,8 @@ class _History:
         with np.errstate(divide="ignore", invalid="ignore"):
             weight = np.clip(np.where(t1 > t0, (when - t0) / (t1 - t0), 1.0), 0.0, 1.0)
         m0, m1 = moles[index, columns], moles[index + 1, columns]
-        return m0 + weight[:, None, None] * (m1 - m0)
+        found: Array = m0 + weight[:, None, None] * (m1 - m0)
+        return found
 
 
 def _open_air(model: _Batch, dry_fraction: float) -> tuple[_History, Array, Array]:
@@ -697,4 +702,5 @@ def _left_at(times: Array, left: Array, when: Array) -> Array:
     import numpy as np
 
     index = np.clip((times <= when[None, :]).sum(axis=0) - 1, 0, len(times) - 1)
-    return left[index, np.arange(times.shape[1])]
+    found: Array = left[index, np.arange(times.shape[1])]
+    return found

@@ -288,10 +288,12 @@ def _set_rule(bound: Bound, spread_id: str, value: float) -> Bound:
         return replace(bound, charge=replace(bound.charge, saturation_points=points))
     if spread.varies.startswith("prep.") and bound.prep is not None:
         name = spread.varies.removeprefix("prep.")
-        return replace(bound, prep=replace(bound.prep, **{name: value}))
+        changes: dict[str, Any] = {name: value}
+        return replace(bound, prep=replace(bound.prep, **changes))
 
     def vary(fuel: Fuel) -> Fuel:
-        return replace(fuel, **{spread.field: value}) if fuel.id == spread.varies else fuel
+        changes: dict[str, Any] = {spread.field: value}
+        return replace(fuel, **changes) if fuel.id == spread.varies else fuel
 
     fuels = {prep: tuple(vary(f) for f in found) for prep, found in bound.fuels.items()}
     return replace(bound, fuels=fuels)
