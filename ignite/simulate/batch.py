@@ -420,9 +420,12 @@ class _Batch:
         side = np.zeros_like(guess)
         t = guess
         for _ in range(40):
+            previous = t
             with np.errstate(divide="ignore", invalid="ignore"):
                 t = np.where(f_low != f_high, (low * f_high - high * f_low) / (f_high - f_low), low)
             t = np.clip(t, np.minimum(low, high), np.maximum(low, high))
+            if np.all(np.abs(t - previous) < 1e-6):
+                break
             f_t = self._surface(t, x, far, covered, False)[0]
             positive = f_t > 0.0
             # Illinois: halve the value kept at the end that stays, so both ends move
