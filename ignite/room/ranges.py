@@ -270,6 +270,6 @@ class Sampling:
 
 
 DEFAULT_SAMPLES = 100
-"""Samples drawn when `--samples` is not given. The batch drying solver takes some 10-20 s
-per case at this count (a case with a flammable prep) (tests/benchmark.py); `--samples 1000` narrows the percentiles'
-sampling error at five times the cost."""
+"""Samples drawn when `--samples` is not given. The batch drying solver takes about 10 s
+per case with a flammable prep at this count and about 25 s at 1000 (tests/benchmark.py);
+`--samples 1000` narrows the percentiles' sampling error ten-fold at that cost."""
