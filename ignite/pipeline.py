@@ -12,10 +12,12 @@ from ignite.records.results import Results, RuleRow
 from ignite.report.worksheet import render_worksheet, write_worksheet
 from ignite.room.load import load_room
 from ignite.room.model import Vocabulary
+from ignite.room.ranges import Sampling
 from ignite.rules.bind import bind
 from ignite.rules.bound import Bound
 from ignite.rules.rulebook import Rulebook, describe, load_rulebook
 from ignite.simulate.compute import METHODS, compute
+from ignite.simulate.uncertainty import spread_results
 
 
 def open_rulebook(directory: Path | None = None) -> Rulebook:
@@ -49,21 +51,27 @@ def substance_problem(name: str) -> str | None:
     return None
 
 
-def evaluate_room(path: Path, book: Rulebook) -> tuple[Bound, Results]:
-    """Load, bind, compute and evaluate one room; raises InputError for a bad room file."""
+def evaluate_room(
+    path: Path, book: Rulebook, sampling: Sampling | None = None
+) -> tuple[Bound, Results]:
+    """Load, bind, compute and evaluate one room; raises InputError for a bad room file.
 
+    `sampling` (`--samples`, `--nominal`, `--confidence`): a room with ranges is assessed
+    over their spread unless `nominal`; by default as the room file says."""
+
+    sampling = sampling or Sampling()
     room = load_room(path, vocabulary(book))
-    bound = bind(room, book)
+    bound = bind(room, book, uncertain=sampling.active(bool(room.ranges)))
     try:
-        results = compute(room, bound)
+        results = spread_results(room, bound, compute(room, bound), sampling)
     except SubstanceDataError as exc:  # a substance the tables know, but without data we need
         raise InputError([Problem(str(path), None, "preparations", str(exc))]) from None
     return bound, evaluate(bound, results)
 
 
-def run_room(path: Path, book: Rulebook) -> Results:
+def run_room(path: Path, book: Rulebook, sampling: Sampling | None = None) -> Results:
     """The evaluated Results of one room file (see `evaluate_room`)."""
-    return evaluate_room(path, book)[1]
+    return evaluate_room(path, book, sampling)[1]
 
 
 def rule_rows(book: Rulebook, only: set[str] | None = None) -> list[RuleRow]:
@@ -90,7 +98,13 @@ def worksheet_path(results: Results, output: Path | None) -> Path:
 
 
 def write_room_worksheet(
-    path: Path, book: Rulebook, output: Path | None, *, force: bool = False, paper: str = "a4"
+    path: Path,
+    book: Rulebook,
+    output: Path | None,
+    *,
+    force: bool = False,
+    paper: str = "a4",
+    sampling: Sampling | None = None,
 ) -> tuple[Results, Path]:
     """Assess one room and write its worksheet.
 
@@ -98,7 +112,7 @@ def write_room_worksheet(
     cannot be written (the message names the path and the reason).
     """
 
-    bound, results = evaluate_room(path, book)
+    bound, results = evaluate_room(path, book, sampling)
     target = worksheet_path(results, output)
     if target.exists() and not force:
         raise OutputExistsError(target)

@@ -16,6 +16,11 @@ operating system's accounting of the finished child) and in wall time:
 - one sample room's worksheet, cold: target about 1.5 s;
 - an audit of 100 generated rooms with the default --jobs (one process per CPU): target 8 s
   or less on 2 cores.
+- ranges (issue 12): one case's drying over 1000 samples, warm (target 1 s), and a room
+  with three cases sampled, cold, against the same room at its central values (target 3x).
+
+The figures before the ranges section run the sample rooms at their central values
+(`--nominal`, ranges replaced in generated rooms), as they were measured before ranges.
 """
 
 from __future__ import annotations
@@ -112,7 +117,7 @@ def main() -> None:
         first = paired(check_floor, bare_command, args.repeat, empty)
         _show("  the same, empty cache folder (first run)", first)
         with_cases = paired(
-            [py, "-m", "ignite", "check", list_room], bare_command, 3, lambda: cache
+            [py, "-m", "ignite", "check", list_room, "--nominal"], bare_command, 3, lambda: cache
         )
         _show("ignite check, room with 3 cases, cold", with_cases, "  (mostly the drying solves)")
     check_list = with_cases["a_wall"]
@@ -136,7 +141,8 @@ def main() -> None:
 
     with_pdf = ROOT / "output" / "benchmark-worksheet.pdf"
     assess = timed(
-        [py, "-m", "ignite", "assess", list_room, "-o", str(with_pdf), "--force"], args.repeat
+        [py, "-m", "ignite", "assess", list_room, "-o", str(with_pdf), "--force", "--nominal"],
+        args.repeat,
     )
     print(
         f"ignite assess (worksheet), cold      {assess:6.2f} s  ({assess / check_list:.2f}x check)"
@@ -151,7 +157,7 @@ def main() -> None:
     import yaml
 
     with tempfile.TemporaryDirectory(prefix="ignite-bench-readings-") as scratch:
-        base = yaml.safe_load(SAMPLES.joinpath("day-surgery-head-neck.yaml").read_text())
+        base = central(yaml.safe_load(SAMPLES.joinpath("day-surgery-head-neck.yaml").read_text()))
         figures = []
         for count in (10, 100, 1000):
             data = dict(base, floor=dict(base["floor"]))
@@ -184,7 +190,7 @@ def main() -> None:
         samples = sorted(SAMPLES.glob("*.yaml"))
         for number in range(100):
             source = samples[number % len(samples)]
-            data = yaml.safe_load(source.read_text(encoding="utf-8"))
+            data = central(yaml.safe_load(source.read_text(encoding="utf-8")))
             data["room"]["id"] = f"GEN-{number:03d}"
             factor = 0.5 + (number % 7) * 0.25
             floor = data["floor"]
@@ -214,6 +220,91 @@ def main() -> None:
         )
         if done.returncode not in (0, 1):
             print("  " + "\n  ".join(done.stderr.strip().splitlines()[-5:]))
+
+    ranges_section(py, list_room, args.repeat)
+
+
+def central(data: object) -> object:
+    """Room data with every range replaced by its central value written plainly."""
+    import re
+
+    if isinstance(data, dict):
+        if set(data) == {"low", "likely", "high"}:
+            return data["likely"]
+        return {key: central(value) for key, value in data.items()}
+    if isinstance(data, list):
+        return [central(value) for value in data]
+    if isinstance(data, str):
+        if "±" in data or "+/-" in data:
+            return re.split(r"\s*(?:±|\+/-)\s*", data)[0]
+        found = re.fullmatch(r"\s*([\d.]+)\s*(\S*)\s+to\s+([\d.]+)\s*(.+)", data)
+        if found:
+            low, _, high, unit = found.groups()
+            return f"{(float(low) + float(high)) / 2:g} {unit.strip()}"
+    return data
+
+
+def ranges_section(py: str, list_room: str, repeat: int) -> None:
+    """Issue 12: sampling over ranges."""
+    import numpy as np
+
+    from ignite.pipeline import open_rulebook, vocabulary
+    from ignite.room.load import load_room
+    from ignite.rules.bind import bind
+    from ignite.simulate import cases as simulate_cases
+    from ignite.simulate.batch import BatchInputs, dry_batch
+
+    book = open_rulebook()
+    room = load_room(list_room, vocabulary(book))
+    bound = bind(room, book, uncertain=True)
+    _, analyses = simulate_cases.preparations(room, bound)
+    case = room.cases[0]
+    assert case.prep is not None and bound.prep is not None
+    a = bound.prep
+    rng = np.random.default_rng(1)
+    n = 1000
+
+    def spread(value: float, share: float) -> np.ndarray:
+        return value * (1.0 + share * (rng.random(n) - 0.5))
+
+    given = BatchInputs(
+        spread(case.prep.volume, 0.4),
+        spread(case.prep.area, 0.2),
+        np.full(n, case.prep.skin_temperature or a.skin_temperature_default),
+        np.full(n, room.environment.temperature),
+        spread(room.environment.relative_humidity, 0.3),
+        spread(case.air_speed, 0.3),
+        np.full(n, case.draping_after),
+        np.full(n, case.first_activation_after),
+        np.full(n, case.drape_pocket.volume),
+        spread(case.drape_pocket.exchange, 0.6),
+        np.full(n, a.hair_still_layer),
+        np.full(n, a.hair_exposed_fraction),
+        np.full(n, a.pooling_volume_fraction),
+        np.full(n, a.pooling_area_fraction),
+        spread(a.tissue_conductance, 0.5),
+        case.prep.hair,
+        case.prep.pooling,
+    )
+    analysis = analyses[case.prep.preparation]
+    dry_batch(
+        analysis,
+        BatchInputs(
+            **{k: v[:2] if isinstance(v, np.ndarray) else v for k, v in vars(given).items()}
+        ),
+        a,
+    )  # warm the tables
+    start = time.perf_counter()
+    dry_batch(analysis, given, a)
+    warm = time.perf_counter() - start
+    print(f"ranges: one case's drying, {n} samples, warm  {warm:6.2f} s  (target 1 s)")
+    nominal = timed([py, "-m", "ignite", "check", list_room, "--nominal"], repeat)
+    for samples in (100, 1000):
+        sampled = timed([py, "-m", "ignite", "check", list_room, "--samples", str(samples)], 1)
+        print(
+            f"ranges: 3-case room, {samples:4d} samples, cold  {sampled:6.2f} s  "
+            f"({sampled / nominal:.1f}x the room at its central values, {nominal:.2f} s; target 3x)"
+        )
 
 
 if __name__ == "__main__":

@@ -334,7 +334,7 @@ def test_an_internal_error_has_its_own_exit_code(room_data, write_room, monkeypa
 
     cli = importlib.import_module("ignite.cli.main")  # the module; ignite.cli.main is the group
 
-    def failing(path, book):  # type: ignore[no-untyped-def]
+    def failing(path, book, *sampling):  # type: ignore[no-untyped-def]
         raise ZeroDivisionError("simulated")
 
     monkeypatch.setattr(cli, "run_room", failing)

@@ -75,7 +75,7 @@ def test_pre_list_worksheet_shows_the_cases_microshock_lines(tmp_path):
     assert " ".join(sentences.SECTION_ELECTRICAL.split()) not in text
 
 
-def test_register_gains_the_worst_electrical_finding_at_the_end(tmp_path):
+def test_register_gains_the_worst_electrical_finding_after_the_earlier_columns(tmp_path):
     site = tmp_path / "site"
     site.mkdir()
     for path in (REFURBISHED, FLOOR_ONLY):
@@ -83,8 +83,10 @@ def test_register_gains_the_worst_electrical_finding_at_the_end(tmp_path):
     out = tmp_path / "out"
     run("audit", site, "-o", out, "--jobs", "1")
     rows = list(csv.reader(io.StringIO((out / "audit-register.csv").read_text("utf-8"))))
-    assert rows[0][-1] == "worst_electrical_finding"
-    cells = {row[0]: row[-1] for row in rows[1:]}
+    # added after the columns that were there before it (the ranges' column follows it)
+    column = rows[0].index("worst_electrical_finding")
+    assert rows[0][column + 1 :] == ["worst_probability"]
+    cells = {row[0]: row[column] for row in rows[1:]}
     assert cells["recommissioning-refurbished.yaml"] == (
         "electrical.bonding-above-limit | high | bonding: scrub sink"
     )

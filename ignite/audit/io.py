@@ -79,6 +79,7 @@ CSV_COLUMNS = (
     "tool_version",
     "rules_sha256",
     "worst_electrical_finding",
+    "worst_probability",
 )
 """The register's CSV header. List cells: readings and point numbers joined by "; ",
 findings, warnings and problems one a line ("rule | severity | subject" for findings)."""
@@ -395,6 +396,7 @@ def register_csv(report: AuditReport) -> bytes:
             "tool_version": report.tool_version,
             "rules_sha256": report.rules_digest,
             "worst_electrical_finding": _finding_cell(row.worst_electrical),
+            "worst_probability": _number(row.worst_probability),
         }
         for severity in SEVERITIES:
             cells[severity] = str(row.count(severity)) if row.assessed else ""
@@ -437,6 +439,7 @@ def register_record(report: AuditReport) -> dict[str, Any]:
                 "worst_electrical_finding": None
                 if row.worst_electrical is None
                 else _finding_record(row.worst_electrical),
+                "worst_probability": row.worst_probability,
             }
         )
     previous = report.previous
@@ -542,6 +545,7 @@ def _rows_from_json(text: str) -> tuple[list[RegisterRow], str, str]:
                 worksheet_sha256=str(room.get("worksheet_sha256") or ""),
                 warnings=tuple(room.get("warnings") or ()),
                 problems=tuple(room.get("problems") or ()),
+                worst_probability=_optional_float(room.get("worst_probability")),
             )
         )
     return rows, str(record.get("tool_version", "")), str(record.get("rules_sha256", ""))
@@ -586,6 +590,7 @@ def _rows_from_csv(text: str) -> tuple[list[RegisterRow], str, str]:
                 worksheet_sha256=cells.get("worksheet_sha256") or "",
                 warnings=tuple(_split(cells.get("warnings"), "\n")),
                 problems=tuple(_split(cells.get("problems"), "\n")),
+                worst_probability=_optional_float(cells.get("worst_probability") or None),
             )
         )
         version = version or cells.get("tool_version") or ""

@@ -38,6 +38,7 @@ from ignite.errors import (
 from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
 from ignite.records.results import SEVERITIES, Results
 from ignite.report.text import render_text
+from ignite.room.ranges import DEFAULT_SAMPLES, Sampling
 from ignite.room.schema import json_schema
 from ignite.room.template import TEMPLATE
 from ignite.rules.rulebook import Entry, Rulebook
@@ -63,6 +64,33 @@ fail_on_option = click.option(
     show_default=True,
     help="Exit 1 when a finding is at or above this severity.",
 )
+
+
+samples_option = click.option(
+    "--samples",
+    type=click.IntRange(10, 100_000),
+    default=None,
+    help=f"Latin hypercube samples over the ranges (default {DEFAULT_SAMPLES}); also samples "
+    "the rules' ranges for a room that gives none.",
+)
+nominal_option = click.option(
+    "--nominal", is_flag=True, help="Central values only: do not sample the ranges."
+)
+confidence_option = click.option(
+    "--confidence",
+    type=click.FloatRange(50.0, 99.9),
+    default=None,
+    metavar="PERCENT",
+    help="Percentile at which waits are read from their spread (default from rules/, 95).",
+)
+
+
+def _sampling(samples: int | None, nominal: bool, confidence: float | None) -> Sampling:
+    return Sampling(
+        samples=samples,
+        nominal=nominal,
+        confidence=None if confidence is None else confidence / 100.0,
+    )
 
 
 def _say(message: str) -> None:
@@ -210,12 +238,24 @@ def main() -> None:
 )
 @fail_on_option
 @rules_option
-def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | None) -> None:
+@samples_option
+@nominal_option
+@confidence_option
+def check(
+    rooms: tuple[Path, ...],
+    fmt: str,
+    fail_on: str,
+    rules_dir: Path | None,
+    samples: int | None,
+    nominal: bool,
+    confidence: float | None,
+) -> None:
     book = _open_rules(rules_dir)
     records: list[dict[str, Any]] = []
+    sampling = _sampling(samples, nominal, confidence)
 
     def check_room(path: Path) -> int:
-        results = run_room(_readable(path), book)
+        results = run_room(_readable(path), book, sampling)
         code = _room_done(results, fail_on)
         if fmt == "json":
             record = results.to_record()
@@ -250,6 +290,9 @@ def check(rooms: tuple[Path, ...], fmt: str, fail_on: str, rules_dir: Path | Non
 )
 @fail_on_option
 @rules_option
+@samples_option
+@nominal_option
+@confidence_option
 def assess(
     rooms: tuple[Path, ...],
     output: str | None,
@@ -257,13 +300,17 @@ def assess(
     paper: str,
     fail_on: str,
     rules_dir: Path | None,
+    samples: int | None,
+    nominal: bool,
+    confidence: float | None,
 ) -> None:
     target = _worksheet_target(output, len(rooms))
     book = _open_rules(rules_dir)
+    sampling = _sampling(samples, nominal, confidence)
 
     def assess_room(path: Path) -> int:
         results, written = write_room_worksheet(
-            _readable(path), book, target, force=force, paper=paper
+            _readable(path), book, target, force=force, paper=paper, sampling=sampling
         )
         code = _room_done(results, fail_on)
         worst = results.worst_severity() or "none"

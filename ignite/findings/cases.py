@@ -27,10 +27,20 @@ def _subject(case: CaseResult) -> str:
     return f"case {case.id}: {case.procedure}"
 
 
+def _decided(case: CaseResult, name: str, nominal: float | None) -> float | None:
+    """A wait a person acts on: over a spread, read at the confidence percentile
+    (`ignite.simulate.uncertainty`), never below the central value's; else the central value."""
+    found = case.spread.decision(name) if case.spread is not None else None
+    if found is None or nominal is None:
+        return nominal
+    return max(found, nominal)
+
+
 def _stop_advice(case: CaseResult) -> str:
-    if case.required_stop_s is not None and case.required_stop_s > 0:
+    required = _decided(case, "stop_oxygen_at_least_s", case.required_stop_s)
+    if required is not None and required > 0:
         return sentences.stop_oxygen(
-            round_up(case.required_stop_s),
+            round_up(required),
             case.stop_before_activation_s,
             case.oxidant_at_activation_fraction,
         )
@@ -39,15 +49,16 @@ def _stop_advice(case: CaseResult) -> str:
 
 def _drape_advice(case: CaseResult, scope: Scope) -> str:
     prep = scope.bound.prep
-    if case.safe_draping_after_s is None or not case.prep_flammable:
+    safe = _decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s)
+    if safe is None or not case.prep_flammable:
         return sentences.NO_FLAMMABLE_PREP
     label_minimum = prep.label_minimum_hairless if prep else None
     label_hair = prep.label_maximum_hair if prep else None
     wet_where = ("in hair" if case.hair else "where it pooled") if case.hair or case.pooling else ""
     return sentences.drape_no_earlier_than(
-        wait=round_up(max(case.safe_draping_after_s, label_minimum or 0.0)),
-        computed_governs=case.safe_draping_after_s >= (label_minimum or 0.0),
-        computed_wait=round_up(case.safe_draping_after_s),
+        wait=round_up(max(safe, label_minimum or 0.0)),
+        computed_governs=safe >= (label_minimum or 0.0),
+        computed_wait=round_up(safe),
         wet_where=wet_where,
         drying_time=sentences.drying_time(case.drying_time_s, HORIZON),
         label_hair=label_hair if case.hair and label_hair else None,
@@ -72,7 +83,9 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "oxidant_site": format_si(case.oxidant_fraction, "fraction"),
         "oxidant_at_activation": format_si(case.oxidant_at_activation_fraction, "fraction"),
         "planned_stop": format_duration(case.stop_before_activation_s),
-        "required_stop": format_duration(round_up(case.required_stop_s)),
+        "required_stop": format_duration(
+            round_up(_decided(case, "stop_oxygen_at_least_s", case.required_stop_s))
+        ),
         "ceiling_stop": format_duration(round_up(case.ceiling_stop_s)),
         "stop_mitigation": _stop_advice(case),
         "draping_mitigation": _drape_advice(case, scope),
@@ -82,7 +95,9 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "drying_time": sentences.drying_time(case.drying_time_s, HORIZON),
         "activation_wait": sentences.activation_wait(case.drying_time_s, HORIZON),
         "open_air_drying": sentences.open_air_drying(case.open_air_drying_time_s, HORIZON),
-        "safe_draping": format_duration(round_up(case.safe_draping_after_s)),
+        "safe_draping": format_duration(
+            round_up(_decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s))
+        ),
         "draping_after": format_duration(case.draping_after_s),
         "first_activation": format_duration(case.first_activation_after_s),
         "pocket_peak": format_si(case.pocket_vapour_peak_fraction_of_lfl, "fraction"),
@@ -97,6 +112,10 @@ def _context(scope: Scope, case: CaseResult) -> Context:
             case.triad.oxidant, case.triad.fuel, case.triad.ignition
         ),
     }
+
+
+case_context = _context
+case_subject = _subject
 
 
 def _cases(scope: Scope) -> Iterator[tuple[CaseResult, Context]]:

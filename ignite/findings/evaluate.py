@@ -15,6 +15,7 @@ from ignite.findings import (  # noqa: F401  (they register their results)
     charge,
     electrical,
     floor,
+    spread,
 )
 from ignite.findings.registry import RESULTS, Context, Scope
 from ignite.records.results import Amount, Finding, Results, severity_rank

@@ -85,6 +85,9 @@ class RegisterRow:
     warnings: tuple[str, ...] = ()
     problems: tuple[str, ...] = ()
     worst_electrical: FindingKey | None = None  # the worst electrical finding, if any
+    # the largest probability of a hazard over the spread of the room's ranges; None when
+    # the room was not assessed with ranges
+    worst_probability: float | None = None
 
     @property
     def assessed(self) -> bool:
@@ -149,6 +152,9 @@ def row_from_results(
         warnings=tuple(results.warnings),
         problems=tuple(problems),
         worst_electrical=worst_electrical(results.findings),
+        worst_probability=(
+            results.uncertainty.worst_probability if results.uncertainty is not None else None
+        ),
     )
 
 

@@ -90,6 +90,7 @@ class ChargeResult:
     settle_time_s: float
     saturation_voltage_V: float = 0.0
     generation_limited: bool = True  # True: I_g*R set the voltage; False: saturation did
+    spread: Spread | None = None  # over the samples, when the room is assessed with ranges
 
 
 @dataclass(frozen=True)
@@ -123,6 +124,97 @@ class Triad:
     @property
     def complete(self) -> bool:
         return self.oxidant and self.fuel and self.ignition
+
+
+@dataclass(frozen=True)
+class Band:
+    """The 5th, 50th and 95th percentiles of one figure over the samples (SI units)."""
+
+    p5: float
+    p50: float
+    p95: float
+
+
+@dataclass(frozen=True)
+class Driver:
+    """An input and its Spearman rank correlation with a figure over the samples."""
+
+    input: str  # a room-file key path (cases[0].prep.volume) or a rule entry id
+    label: str  # as a reader names it
+    rank_correlation: float  # -1 to 1
+    measurable: bool = True  # False for a rule value (read the literature, not the room)
+
+
+@dataclass(frozen=True)
+class Spread:
+    """A case's or a person's figures over the samples drawn from the ranges.
+
+    bands: figure name (a record key, e.g. drying_time_s) -> percentiles; probabilities:
+    name -> fraction of the samples; drivers: figure name -> inputs, strongest first;
+    decisions: name -> the figure at the confidence percentile (drape_no_earlier_than_s,
+    stop_oxygen_at_least_s), always rounded up to a sample.
+    """
+
+    samples: int
+    bands: tuple[tuple[str, Band], ...] = ()
+    probabilities: tuple[tuple[str, float], ...] = ()
+    drivers: tuple[tuple[str, tuple[Driver, ...]], ...] = ()
+    decisions: tuple[tuple[str, float], ...] = ()
+    # chart bands: (x, p5, p95) along the nominal curve's x values
+    oxygen_band: tuple[tuple[float, float, float], ...] = ()
+    film_band: tuple[tuple[float, float, float], ...] = ()
+
+    def band(self, name: str) -> Band | None:
+        return dict(self.bands).get(name)
+
+    def probability(self, name: str) -> float | None:
+        return dict(self.probabilities).get(name)
+
+    def decision(self, name: str) -> float | None:
+        return dict(self.decisions).get(name)
+
+    def drivers_of(self, name: str) -> tuple[Driver, ...]:
+        return dict(self.drivers).get(name, ())
+
+    def to_record(self) -> dict[str, Any]:
+        return _clean(
+            {
+                "samples": self.samples,
+                "percentiles": {name: asdict(band) for name, band in self.bands},
+                "probabilities": dict(self.probabilities),
+                "decisions": dict(self.decisions),
+                "drivers": {
+                    name: [asdict(driver) for driver in drivers] for name, drivers in self.drivers
+                },
+            }
+        )
+
+
+@dataclass(frozen=True)
+class SpreadInput:
+    """One uncertain input of a sampled run: a room-file range or a rule value's range."""
+
+    input: str  # key path or rule entry id
+    label: str
+    kind: str  # uniform | normal | triangular
+    text: str  # the range as written
+    source: str = ""  # for a rule value
+    flag: str = ""
+
+
+@dataclass(frozen=True)
+class SpreadSummary:
+    """How the room's ranges were sampled: the record's top-level `uncertainty`."""
+
+    samples: int
+    seed: int
+    confidence: float  # the percentile decisions are read at (0.95)
+    probability_limit: float  # a probability at or above this is reported
+    method: str
+    sensitivity: str
+    inputs: tuple[SpreadInput, ...]
+    worst_probability: float | None = None  # the largest probability of any case
+    worst_probability_of: str = ""  # which case and which probability
 
 
 @dataclass(frozen=True)
@@ -173,6 +265,7 @@ class CaseResult:
     pocket_curve: tuple[tuple[float, float], ...] = ()  # (s, pocket vapour / LFL) as planned
     pocket_margin_fraction_of_lfl: float | None = None  # rules: the pocket stays below this
     label_minimum_s: float | None = None  # the label's drying time on hairless skin
+    spread: Spread | None = None  # over the samples, when the room is assessed with ranges
 
 
 @dataclass(frozen=True)
@@ -302,6 +395,7 @@ class Results:
     # chart data: per person/trolley label, (RH fraction, body voltage V) at the room's leak path
     voltage_vs_rh: tuple[tuple[str, tuple[tuple[float, float], ...]], ...] = ()
     electrical: ElectricalResult | None = None  # rooms with an `electrical` section
+    uncertainty: SpreadSummary | None = None  # how the ranges were sampled, when they were
 
     def worst_severity(self) -> str | None:
         if not self.findings:
@@ -333,19 +427,31 @@ class Results:
         )
         if self.electrical is not None:  # an addition: only rooms with an electrical section
             record["electrical"] = _clean(asdict(self.electrical))
+        if self.uncertainty is not None:
+            record["uncertainty"] = _clean(asdict(self.uncertainty))
         return record
 
 
 def _charge_record(charge: ChargeResult, label_key: str) -> dict[str, Any]:
     record = _clean(asdict(charge))
     record[label_key] = record.pop("label")
+    _spread_record(record, charge.spread)
     return record
 
 
 def _case_record(case: CaseResult) -> dict[str, Any]:
     record = _clean(asdict(case))
     record["materials_sustain_burning"] = list(case.materials_sustain_burning)
+    _spread_record(record, case.spread)
     return record
+
+
+def _spread_record(record: dict[str, Any], spread: Spread | None) -> None:
+    """The optional `uncertainty` key: absent (not null) when nothing was sampled, so a
+    record without ranges is byte for byte what it was."""
+    record.pop("spread")
+    if spread is not None:
+        record["uncertainty"] = spread.to_record()
 
 
 # Why a figure has no finite value, by record key; `_clean` puts it beside the null.

@@ -16,6 +16,7 @@ from ignite.records.results import (
     ElectricalResult,
     Finding,
     Results,
+    Spread,
     severity_rank,
 )
 from ignite.simulate.drying import HORIZON
@@ -93,6 +94,42 @@ def finding_lines(finding: Finding) -> list[str]:
     return lines
 
 
+def _spread_lines(spread: Spread | None, indent: str = "  ") -> list[str]:
+    """A case's or a person's figures over the samples: `median (p5–p95)`, the
+    probabilities, the decisions and what to measure first."""
+    if spread is None:
+        return []
+    lines = [f"{indent}{say.SPREAD_HEADING} ({spread.samples} samples):"]
+    for name, band in spread.bands:
+        label, unit = say.SPREAD_FIGURES[name]
+        lines.append(f"{indent}  {label}: {say.spread_text(band.p50, band.p5, band.p95, unit)}")
+    for name, probability in spread.probabilities:
+        lines.append(
+            f"{indent}  {say.SPREAD_PROBABILITY_COLUMN} of {say.SPREAD_PROBABILITIES[name]}: "
+            f"{say.probability_text(probability)}"
+        )
+    for name, _ in spread.bands:
+        drivers = spread.drivers_of(name)
+        if drivers and name in say.SPREAD_DRIVEN:
+            label = say.SPREAD_FIGURES[name][0]
+            lines.append(
+                f"{indent}  "
+                + say.narrow_first(
+                    label, [(d.label, d.rank_correlation, d.measurable) for d in drivers]
+                )
+            )
+    return lines
+
+
+def _charge_spreads(charges: tuple[ChargeResult, ...]) -> list[str]:
+    lines = []
+    for charge in charges:
+        if charge.spread is not None and any(b.p5 != b.p95 for _, b in charge.spread.bands):
+            lines.append(f"  {charge.label}")
+            lines += _spread_lines(charge.spread, "    ")
+    return [*lines, ""] if lines else []
+
+
 def render_text(results: Results) -> str:
     r = results
     env = r.environment
@@ -111,6 +148,9 @@ def render_text(results: Results) -> str:
         ),
         "",
     ]
+    if r.uncertainty is not None:
+        u = r.uncertainty
+        out += [say.spread_summary(u.samples, u.confidence, len(u.inputs)), ""]
     readings = [
         format_si(v, "Ω") + (say.TEXT_OUTSIDE_MARK if i in fl.readings_outside else "")
         for i, v in enumerate(fl.readings_ohm)
@@ -145,6 +185,7 @@ def render_text(results: Results) -> str:
     out.append("")
     out += _charges(say.TEXT_PEOPLE, r.people, say.TEXT_ROLE, r.no_spark_voltage_V)
     out += _charges(say.TEXT_TROLLEYS, r.trolleys, say.TEXT_NAME, r.no_spark_voltage_V)
+    out += _charge_spreads(r.people + r.trolleys)
     if r.lowest_site_mie_J is not None:
         out += [say.text_lowest_mie(r.lowest_site_mie_J, r.lowest_site_mie_fuel), ""]
     if r.preparations:
@@ -204,6 +245,7 @@ def render_text(results: Results) -> str:
         out.append(
             f"  {say.CASE_MATERIALS_BURNING}: {say.names_or_none(case.materials_sustain_burning)}"
         )
+        out += _spread_lines(case.spread)
         out.append("")
     if r.electrical is not None:
         out += electrical_lines(r.electrical)

@@ -55,6 +55,7 @@ from ignite.room.model import (
     Trolley,
     Vocabulary,
 )
+from ignite.room.ranges import Distribution, is_range, parse_range
 from ignite.room.source import MAX_BYTES, item, join, line_of, parse_yaml
 from ignite.room.units import BareNumberError, describe, noun, parse_quantity
 
@@ -153,6 +154,21 @@ _KEY_EXAMPLES = {
     "prep": "prep: none",
 }
 
+# The keys a range is taken at: those whose spread the sampling carries to a case's or a
+# person's figures (ignite.simulate.uncertainty). Elsewhere a range is refused, never ignored.
+RANGED_KEYS = re.compile(
+    r"(environment\.(temperature|relative_humidity)"
+    r"|people\[\d+\]\.(footwear|capacitance)"
+    r"|trolleys\[\d+\]\.(capacitance|path_to_floor)"
+    r"|cases\[\d+\]\.(oxygen\.(flow|fraction|nitrous_oxide_flow|stop_before_activation)"
+    r"|drape_pocket\.(volume|exchange)|prep\.(volume|area|skin_temperature)"
+    r"|air_speed|draping_after|first_activation_after))\Z"
+)
+RANGE_NOT_TAKEN = (
+    "a range is taken only where it changes a case's or a person's figures "
+    "(see docs/ranges.md); give one value here"
+)
+
 _COMPONENT = bound_for("preparations[].components.*")
 
 _NAN = math.nan  # placeholder for a value already reported; never leaves this module
@@ -249,6 +265,7 @@ class _Reader:
         self.vocabulary = vocabulary
         self.problems: list[Problem] = []
         self.warnings: list[Problem] = []
+        self.ranges: dict[str, Distribution] = {}
 
     # -- reporting ---------------------------------------------------------------
 
@@ -301,6 +318,8 @@ class _Reader:
         usual range a warning; a hint is added where a likely slip is recognised.
         """
         rule = bound or bound_for(path)
+        if is_range(value):
+            return self.ranged(value, path, rule)
         try:
             number = parse_quantity(value, rule.dimension)
         except BareNumberError as exc:
@@ -324,6 +343,31 @@ class _Reader:
                 f"accepted; check the reading and its unit{other_scale_hint(value, rule)}",
             )
         return number
+
+    def ranged(self, value: Any, path: str, rule: Bound) -> float:
+        """A range (`ignite.room.ranges`) as its central value; the spread is kept in
+        `self.ranges` by key path. NaN after a reported problem."""
+        if not RANGED_KEYS.match(path):
+            self.problem(path, f"got the range {describe(value)}: {RANGE_NOT_TAKEN}")
+            return _NAN
+        low = rule.hard.low if rule.hard.low is not None else -math.inf
+        high = rule.hard.high if rule.hard.high is not None else math.inf
+        try:
+            spread = parse_range(value, rule.dimension, low, high)
+        except UnitError as exc:
+            self.problem(path, exc.message)
+            return _NAN
+        assert spread is not None  # is_range said so
+        for end in spread.ends:
+            if not rule.hard.contains(end):
+                self.problem(
+                    path,
+                    f"expected {noun(rule.dimension)} {rule.hard.text} at every point of the "
+                    f"range, got {describe(spread.text)}; why: {rule.reason}",
+                )
+                return _NAN
+        self.ranges[path] = spread
+        return spread.central
 
     def optional_quantity(self, section: dict[str, Any], path: str, key: str) -> float | None:
         if section.get(key) is None:
@@ -443,6 +487,7 @@ class _Reader:
             cases=cases,
             warnings=tuple(str(warning) for warning in self.warnings),
             electrical=electrical,
+            ranges=tuple(self.ranges.items()),
         )
 
     def header(self, value: Any, path: str) -> RoomHeader | None:
@@ -598,7 +643,7 @@ class _Reader:
         if self.vocabulary and self.vocabulary.footwear_classes:
             classes = sorted(self.vocabulary.footwear_classes)
         classes = tuple(classes)
-        if isinstance(value, str) and _STARTS_LIKE_NUMBER.match(value):
+        if isinstance(value, dict) or (isinstance(value, str) and _STARTS_LIKE_NUMBER.match(value)):
             resistance = self.quantity(value, path)
             return Footwear(cls=None, resistance=resistance)
         if isinstance(value, str) and value.strip().lower() in classes:

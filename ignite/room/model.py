@@ -10,6 +10,8 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass, field
 
+from ignite.room.ranges import Distribution
+
 
 @dataclass(frozen=True)
 class Mains:
@@ -194,6 +196,8 @@ class Room:
     cases: tuple[Case, ...] = ()
     warnings: tuple[str, ...] = field(default=())
     electrical: Electrical | None = None  # None: the file has no `electrical` section
+    # key path -> spread, for each quantity given as a range (its field holds the central value)
+    ranges: tuple[tuple[str, Distribution], ...] = ()
 
 
 @dataclass(frozen=True)

@@ -110,7 +110,10 @@ cases:                            # the planned list; may be empty (cases: []) o
                                     # activation of an ignition source (0 s if it is not)
     drape_pocket:                 # the space under the drapes around the operative site
       volume: 25 L                # estimated gas volume of the pocket (1 L to 500 L)
-      exchange: 8 L/min           # fresh room air flowing through it
+      exchange: 6 to 10 L/min     # fresh room air flowing through it. Not sure of a value?
+                                  # give a range: "6 to 10 L/min" (uniform), "8 L/min ±
+                                  # 2 L/min" (normal, ± one SD) or {low: 5 L/min, likely:
+                                  # 8 L/min, high: 12 L/min}; see docs/ranges.md
     prep:                         # the skin preparation for this case; "prep: none" if none
       preparation: chg-ipa        # an id from preparations above
       volume: 8 mL                # liquid applied

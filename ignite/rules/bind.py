@@ -25,9 +25,11 @@ from ignite.rules.bound import (
     Material,
     OxygenModel,
     PrepAssumptions,
+    RuleSpread,
     RuleValue,
     ShockModel,
     SourcedValue,
+    UncertaintyModel,
     leakage_selector,
 )
 from ignite.rules.rulebook import Entry, Limit, Rulebook
@@ -73,8 +75,15 @@ class _Reader:
         return entry
 
 
-def bind(room: Room, book: Rulebook) -> Bound:
-    """Every rule value this room needs, read once, with the ids consulted."""
+def bind(room: Room, book: Rulebook, *, uncertain: bool | None = None) -> Bound:
+    """Every rule value this room needs, read once, with the ids consulted.
+
+    uncertain: the room is assessed over the spread of its inputs (by default when it gives
+    a range): the rule values' ranges, the uncertainty settings and the checks on
+    probabilities are bound too.
+    """
+    if uncertain is None:
+        uncertain = bool(room.ranges)
     reader = _Reader(book)
     window = _window(reader, room.floor.criteria, room.room.mains.voltage)
     shock = _shock(reader)
@@ -93,10 +102,12 @@ def bind(room: Room, book: Rulebook) -> Bound:
     checks = tuple(
         _check(reader, entry, window)
         for entry in book.of_kind("checks")
-        if _has_subjects(str(entry.get("reads")), room)
+        if _has_subjects(str(entry.get("reads")), room, uncertain)
     )
     _note_ignition_sources(reader, room)
     electrical = _electrical(reader, room)
+    spreads = _spreads(reader, room, fuels, charge) if uncertain else ()
+    uncertainty = _uncertainty(reader) if uncertain else None
     return Bound(
         rules_digest=book.digest,
         window=window,
@@ -112,6 +123,8 @@ def bind(room: Room, book: Rulebook) -> Bound:
         checks=checks,
         consulted=frozenset(reader.consulted),
         electrical=electrical,
+        spreads=spreads,
+        uncertainty=uncertainty,
     )
 
 
@@ -383,13 +396,62 @@ def _electrical(reader: _Reader, room: Room) -> ElectricalRules | None:
     )
 
 
+# --- ranges of rule values -------------------------------------------------------------
+
+PROBABILITY_PREFIX = "case.probability_"
+"""Results that exist only over samples: their checks are bound only for a sampled room."""
+
+
+def _spreads(
+    reader: _Reader, room: Room, fuels: dict[str, tuple[Fuel, ...]], charge: ChargeModel
+) -> tuple[RuleSpread, ...]:
+    """The ranges of the rule values this room uses: its fuels' MIE, the film model's
+    assumptions (a room with preparations), the humidity table in force (people or trolleys)."""
+    used = {fuel.id for found in fuels.values() for fuel in found}
+    if room.preparations:
+        used.update(e.id for e in reader.book.of_kind("parameters") if e.id.startswith("prep."))
+    if room.people or room.trolleys:
+        used.add(charge.saturation_curve_id)
+    found = []
+    for entry in reader.book.of_kind("ranges"):
+        if str(entry.get("varies")) not in used:
+            continue
+        reader.consulted.add(entry.id)
+        spread = entry.sourced("range")
+        found.append(
+            RuleSpread(
+                id=entry.id,
+                title=entry.title,
+                varies=str(entry.get("varies")),
+                field=str(entry.get("field") or "value"),
+                distribution=spread.value,
+                source=spread.source,
+                flag=spread.flag,
+            )
+        )
+    return tuple(found)
+
+
+def _uncertainty(reader: _Reader) -> UncertaintyModel:
+    def sourced(entry_id: str) -> SourcedValue:
+        item = reader.entry(entry_id).sourced("value")
+        return SourcedValue(float(item.value), item.source, item.flag)
+
+    return UncertaintyModel(
+        confidence=sourced("uncertainty.confidence"),
+        probability_limit=sourced("uncertainty.probability_limit"),
+    )
+
+
 # --- checks --------------------------------------------------------------------------
 
 
-def _has_subjects(reads: str, room: Room) -> bool:
+def _has_subjects(reads: str, room: Room, uncertain: bool = False) -> bool:
     """Whether the result a check reads can have a subject in this room: case results need
-    cases, charge results people or trolleys. Checks that cannot apply are not bound (and
-    so not listed among the rules consulted)."""
+    cases, charge results people or trolleys, probabilities a room assessed with ranges.
+    Checks that cannot apply are not bound (and so not listed among the rules consulted)."""
+    if reads.startswith(PROBABILITY_PREFIX) and not uncertain:
+        return False
     family = reads.split(".", 1)[0]
     if family == "electrical":
         return room.electrical is not None

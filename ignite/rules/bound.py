@@ -11,6 +11,8 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass
 
+from ignite.room.ranges import Distribution
+
 
 @dataclass(frozen=True)
 class SourcedValue:
@@ -198,6 +200,28 @@ class BoundCheck:
 
 
 @dataclass(frozen=True)
+class RuleSpread:
+    """A rule value's range (rules/ranges.yaml): which entry and field it varies, and how."""
+
+    id: str  # the ranges entry
+    title: str
+    varies: str  # the entry whose value is uncertain (a fuel, a prep.* parameter, a curve)
+    field: str  # value | mie_air | exponent | points (a factor on the curve's y values)
+    distribution: Distribution
+    source: str
+    flag: str
+
+
+@dataclass(frozen=True)
+class UncertaintyModel:
+    """How samples become decisions: the percentile waits are read at, the probability
+    at or above which a hazard is reported (rules/uncertainty.yaml)."""
+
+    confidence: SourcedValue
+    probability_limit: SourcedValue
+
+
+@dataclass(frozen=True)
 class Bound:
     """Every rule value one room needs, and the ids of the entries consulted."""
 
@@ -215,6 +239,9 @@ class Bound:
     checks: tuple[BoundCheck, ...]
     consulted: frozenset[str]
     electrical: ElectricalRules | None = None  # None: the room has no `electrical` section
+    # only when the room is assessed with ranges: the rule values' ranges, and the settings
+    spreads: tuple[RuleSpread, ...] = ()
+    uncertainty: UncertaintyModel | None = None
 
     def footwear_resistance(self, cls: str) -> float:
         """Sole resistance of a footwear class."""

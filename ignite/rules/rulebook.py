@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import hashlib
 import math
+import re
 import sys
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
@@ -30,8 +31,9 @@ from typing import Any
 from ignite.errors import Problem, RuleFileError, UnitError
 from ignite.physics import _cache
 from ignite.records.results import SEVERITIES
+from ignite.room.ranges import is_range, parse_range
 from ignite.room.source import load_yaml
-from ignite.room.units import parse_any, parse_quantity
+from ignite.room.units import number_and_unit, parse_any, parse_quantity
 from ignite.wording import sentences
 
 FLAGS = ("published", "to confirm", "common practice", "assumption")
@@ -115,6 +117,11 @@ SCHEMAS: dict[str, dict[str, Spec]] = {
         "temperature": Spec("quantity", "temperature"),
     },
     "sites": {"near_airway": Spec("bool", required=True)},
+    "ranges": {
+        "varies": Spec("text", required=True),  # the id of the entry whose value is uncertain
+        "field": Spec("text"),  # which of its fields (default: value; `points` scales a curve)
+        "range": Spec("range", required=True),
+    },
     "checks": {
         "reads": Spec("text", required=True),
         "test": Spec("choice", required=True, choices=TESTS),
@@ -475,7 +482,32 @@ def _read_field(spec: Spec, raw: Any, source: str, flag: str) -> Any:
         return _read_steps(raw, source, flag)
     if spec.type == "limit":
         return _read_limit(raw, source, flag)
+    if spec.type == "range":
+        return _read_range(raw, source, flag)
     raise AssertionError(spec.type)
+
+
+def _read_range(raw: Any, source: str, flag: str) -> Sourced:
+    """A range in the room file's syntax (`ignite.room.ranges`), in the dimension its unit
+    says; `_check_ranges` matches that with the field it varies."""
+    if not is_range(raw):
+        raise _FieldError(
+            "expected a range: '0.23 to 0.28 mJ', '12.6 W/(m^2*K) ± 2 W/(m^2*K)' or "
+            "{low: ..., likely: ..., high: ...}"
+        )
+    if isinstance(raw, dict):
+        written = str(raw.get("high", ""))
+    else:
+        written = re.split(r"\s+to\s+|\s*(?:±|\+/-|\+-)\s*", str(raw).strip(), maxsplit=1)[0]
+        if number_and_unit(written) is None:
+            written = re.split(r"\s+to\s+", str(raw).strip(), maxsplit=1)[-1]
+    try:
+        dimension = parse_any(written)[1]
+        spread = parse_range(raw, dimension)
+    except UnitError as exc:
+        raise _FieldError(str(exc)) from None
+    assert spread is not None
+    return Sourced(spread, spread.text, source, flag, dimension)
 
 
 def _read_points(raw: Any, source: str, flag: str) -> Sourced:
@@ -552,9 +584,71 @@ def limit_dimension(
     return known.get(limit.ref)
 
 
+RANGED_FIELDS: dict[str, tuple[str, ...]] = {
+    "parameters": ("value",),
+    "fuels": ("mie_air", "exponent"),
+    "curves": ("points",),
+}
+"""The fields a `ranges` entry may vary, by the kind of entry it names; a curve's `points`
+are scaled (the range is a factor on its y values)."""
+
+
+def _check_ranges(entries: Mapping[str, Entry], problems: list[Problem]) -> None:
+    """A `ranges` entry names an entry and field that exist, in the same dimension, and its
+    range holds the value in force (so the nominal run sits inside the spread)."""
+    for entry in entries.values():
+        if entry.kind != "ranges":
+            continue
+        where = f"{entry.id}.varies"
+        target = entries.get(str(entry.get("varies")))
+        name = str(entry.get("field") or "value")
+        if target is None or name not in RANGED_FIELDS.get(target.kind, ()):
+            allowed = "; ".join(f"{k}: {', '.join(v)}" for k, v in RANGED_FIELDS.items())
+            problems.append(
+                Problem(
+                    entry.file,
+                    entry.line,
+                    where,
+                    f"expected an entry id and one of its fields that may vary ({allowed}), "
+                    f"got {entry.get('varies')!r} field {name!r}",
+                )
+            )
+            continue
+        spread = entry.sourced("range")
+        if name == "points":
+            wanted, central = "fraction", 1.0
+        else:
+            item = target.sourced(name)
+            wanted, central = item.dimension or "fraction", float(item.value)
+        if spread.dimension != wanted:
+            problems.append(
+                Problem(
+                    entry.file,
+                    entry.line,
+                    f"{entry.id}.range",
+                    f"incompatible units: {target.id} {name} is a {wanted}, the range a "
+                    f"{spread.dimension}",
+                )
+            )
+            continue
+        found = spread.value
+        slack = 1e-9 * abs(central)
+        if not (found.low - slack <= central <= found.high + slack):
+            problems.append(
+                Problem(
+                    entry.file,
+                    entry.line,
+                    f"{entry.id}.range",
+                    f"the range {found.text!r} does not hold the value in force of "
+                    f"{target.id} {name}",
+                )
+            )
+
+
 def _cross_check(
     entries: Mapping[str, Entry], known: Mapping[str, str] | None, problems: list[Problem]
 ) -> None:
+    _check_ranges(entries, problems)
     for entry in entries.values():
         if entry.kind == "curves":
             points = entry.get("points")

@@ -221,6 +221,13 @@ def _drying(
     return outcome, any(analysis.flammable)
 
 
+def prep_drying(
+    case: Case, room: Room, bound: Bound, analyses: dict[str, PreparationAnalysis]
+) -> tuple[PrepOutcome, bool] | None:
+    """The case's prep drying (see `_drying`), for the sampling of `ignite.simulate.uncertainty`."""
+    return _drying(case, room, bound, analyses)
+
+
 def case_result(
     case: Case,
     room: Room,

@@ -17,7 +17,7 @@ import dataclasses
 import math
 import re
 from collections.abc import Iterator, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from ignite.findings.cases import round_up
 from ignite.records.results import (
@@ -116,6 +116,15 @@ class RefLine:
 
 
 @dataclass(frozen=True)
+class BandArea:
+    """A shaded band between two curves (the 5th and 95th percentiles over the samples)."""
+
+    label: str
+    lower: tuple[tuple[float, float], ...]
+    upper: tuple[tuple[float, float], ...]
+
+
+@dataclass(frozen=True)
 class Chart:
     title: str
     x: Axis
@@ -123,6 +132,27 @@ class Chart:
     series: tuple[Series, ...]
     lines: tuple[RefLine, ...] = ()
     caption: str = ""
+    bands: tuple[BandArea, ...] = ()
+
+
+@dataclass(frozen=True)
+class BarChart:
+    """Horizontal bars from zero, signed (a small 'what drives it' chart)."""
+
+    title: str
+    bars: tuple[tuple[str, float], ...]  # (label, value in -1..1)
+    axis_label: str
+    caption: str = ""
+
+
+@dataclass(frozen=True)
+class SpreadView:
+    """A case over the spread of its inputs: the figures, what to measure, what drives it."""
+
+    heading: str
+    table: Table
+    advice: tuple[str, ...]
+    drivers: BarChart | None
 
 
 @dataclass(frozen=True)
@@ -143,6 +173,7 @@ class CaseView:
     notes: tuple[str, ...]
     oxygen_chart: Chart | None
     film_chart: Chart | None
+    spread: SpreadView | None = None
 
 
 @dataclass(frozen=True)
@@ -215,6 +246,7 @@ class WorksheetView:
     flags: tuple[str, ...] = ()  # each provenance flag used, with its meaning
     preparation_methods: tuple[str, ...] = ()  # per preparation, in the methods appendix
     electrical: ElectricalView | None = None  # rooms with an `electrical` section
+    spread_summary: str = ""  # how the ranges were sampled, and the percentile waits are read at
 
 
 # --------------------------------------------------------------------------- build
@@ -314,6 +346,7 @@ def build_view(
             for flag in _in_order([f.flag for f in findings] + [r.flag for r in rules])
         ),
         electrical=_electrical_view(results),
+        spread_summary=spread_summary(results),
     )
     return dataclasses.replace(view, glossary=_glossary(view))
 
@@ -615,15 +648,20 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
         heading=say.case_heading(case.id, case.procedure),
         triad=_triad(case, limit_text),
         triad_summary=say.triad_summary(case.triad.oxidant, case.triad.fuel, case.triad.ignition),
-        quantities=Table(
-            headers=say.CASE_TABLE_HEADERS,
-            rows=tuple(rows),
-            widths=(2.5, 1.1, 1.9, 1.1),
+        quantities=with_probabilities(
+            Table(
+                headers=say.CASE_TABLE_HEADERS,
+                rows=tuple(rows),
+                widths=(2.5, 1.1, 1.9, 1.1),
+            ),
+            case,
+            mie_label,
         ),
         lists=((say.CASE_SITE, case.site), *lists),
         notes=tuple(case.notes),
-        oxygen_chart=_oxygen_chart(case, enriched),
-        film_chart=_film_chart(case),
+        oxygen_chart=with_band(_oxygen_chart(case, enriched), case.oxygen_curve, case, "oxygen"),
+        film_chart=with_band(_film_chart(case), case.film_curve, case, "film"),
+        spread=spread_view(case),
     )
 
 
@@ -1328,4 +1366,119 @@ def _electrical_view(results: Results) -> ElectricalView | None:
         ),
         notes=tuple(notes),
         caution=say.ELECTRICAL_CAUTION,
+    )
+
+
+# --------------------------------------------------------------------------- spread
+
+
+def spread_summary(results: Results) -> str:
+    """How the ranges were sampled and the percentile waits are read at; '' for a nominal run."""
+    u = results.uncertainty
+    if u is None:
+        return ""
+    return say.spread_summary(u.samples, u.confidence, len(u.inputs))
+
+
+def with_probabilities(table: Table, case: CaseResult, mie_label: str) -> Table:
+    """The case table with a column of chances over the samples, on the rows they belong to."""
+    if case.spread is None:
+        return table
+    by_label = {
+        say.OXIDANT_AT_ACTIVATION: "oxidant_enriched_at_activation",
+        say.DRYING_TIME: "prep_wet_at_activation",
+        say.DRAPES_PLANNED: "pocket_above_margin_at_draping",
+        mie_label: "spark_above_site_mie",
+    }
+    rows = []
+    for row in table.rows:
+        name = by_label.get(row[0])
+        chance = case.spread.probability(name) if name else None
+        rows.append((*row, say.probability_text(chance) if chance is not None else ""))
+    return Table(
+        headers=(*table.headers, say.SPREAD_PROBABILITY_COLUMN),
+        rows=tuple(rows),
+        widths=(*table.widths, 0.8),
+        empty_text=table.empty_text,
+    )
+
+
+def with_band(
+    chart: Chart | None,
+    curve: Sequence[tuple[float, float]],
+    case: CaseResult,
+    which: str,
+) -> Chart | None:
+    """`chart` with the 5-95 % band over the samples shaded around its curve."""
+    if chart is None or case.spread is None or not chart.series:
+        return chart
+    band = case.spread.oxygen_band if which == "oxygen" else case.spread.film_band
+    drawn = chart.series[0].points
+    scale = next(
+        (t / x for (t, _), (x, _) in zip(_finite_points(curve), drawn, strict=False) if x > 0), None
+    )
+    if scale is None or not band:
+        return chart
+    lower = tuple(
+        (t / scale, lo * 100) for t, lo, _ in band if math.isfinite(t) and math.isfinite(lo)
+    )
+    upper = tuple(
+        (t / scale, hi * 100) for t, _, hi in band if math.isfinite(t) and math.isfinite(hi)
+    )
+    top = max([chart.y.high] + [y for _, y in upper])
+    y = chart.y if top <= chart.y.high else linear_axis(chart.y.label, chart.y.low, top, count=4)
+    return replace(
+        chart,
+        y=y,
+        bands=(BandArea(say.SPREAD_BAND, lower, upper),),
+        caption=say.SPREAD_BAND_CAPTION,
+    )
+
+
+def spread_view(case: CaseResult) -> SpreadView | None:
+    """The case's figures over the samples, what to measure first, and the drivers chart."""
+    spread = case.spread
+    if spread is None:
+        return None
+    rows = []
+    for name, band in spread.bands:
+        label, unit = say.SPREAD_FIGURES[name]
+        rows.append((label, say.spread_text(band.p50, band.p5, band.p95, unit)))
+    for name, value in spread.decisions:
+        rows.append((say.SPREAD_DECISIONS[name], format_duration(value)))
+    for name, probability in spread.probabilities:
+        rows.append(
+            (
+                f"{say.SPREAD_PROBABILITY_COLUMN}: {say.SPREAD_PROBABILITIES[name]}",
+                say.probability_text(probability),
+            )
+        )
+    advice = tuple(
+        say.narrow_first(
+            say.SPREAD_FIGURES[name][0],
+            [(d.label, d.rank_correlation, d.measurable) for d in spread.drivers_of(name)],
+        )
+        for name, _ in spread.bands
+        if name in say.SPREAD_DRIVEN and spread.drivers_of(name)
+    )
+    decisive = next(
+        (name for name in ("safe_draping_after_s", "washout_s") if spread.drivers_of(name)),
+        None,
+    )
+    drivers = None
+    if decisive is not None:
+        drivers = BarChart(
+            title=say.drivers_chart_title(case.id, say.SPREAD_FIGURES[decisive][0]),
+            bars=tuple((_short(d.label), d.rank_correlation) for d in spread.drivers_of(decisive)),
+            axis_label=say.DRIVERS_AXIS,
+        )
+    return SpreadView(
+        heading=say.SPREAD_HEADING,
+        table=Table(
+            headers=say.SPREAD_TABLE_HEADERS,
+            rows=tuple(rows),
+            widths=(2.2, 1.8),
+        ),
+        advice=advice,
+        drivers=drivers,
     )

@@ -68,6 +68,8 @@ MARGIN_BOTTOM = 21 * mm  # room for the three-line footer
 GRID = colors.Color(0.55, 0.55, 0.55)
 SHADE = colors.Color(0.9, 0.9, 0.9)  # header rows: light enough to print as grey on any printer
 FAINT = colors.Color(0.82, 0.82, 0.82)
+BAND_GREY = colors.Color(0.88, 0.88, 0.88)
+BAR_GREY = colors.Color(0.6, 0.6, 0.6)
 
 # Series styles: black lines told apart by dash pattern and marker shape.
 DASHES: tuple[tuple[float, ...] | None, ...] = (None, (4, 2), (1, 1.6), (6, 2, 1, 2), (2.5, 2.5))
@@ -557,6 +559,8 @@ def _cases(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
     story: list[Flowable] = [CondPageBreak(60 * mm), _p(say.SECTION_CASES, st["h2"])]
+    if view.spread_summary:
+        story.append(_p(view.spread_summary, st["body"]))
     if not view.cases:
         return [*story, _p(view.no_cases_text, st["body"])]
     for index, case in enumerate(view.cases):
@@ -581,6 +585,7 @@ def _cases(
         block = _charts_row(charts, width, st)
         if block is not None:
             story += [Spacer(1, 5), block]
+        story += _spread_block(case.spread, width, st)
         story.append(Spacer(1, 8))
     return story
 
@@ -1061,6 +1066,7 @@ def draw_chart(
         )
     )
 
+    _draw_bands(drawing, chart, fx, fy)
     for series in chart.series:
         dash, marker = _series_look(series)
         points = [(fx(x), fy(y)) for x, y in series.points]
@@ -1306,3 +1312,119 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     story += _appendix(view, width, st)
     doc.build(story, canvasmaker=_canvas_maker(view))
     return buffer.getvalue()
+
+
+# --------------------------------------------------------------------------- spread
+
+
+def _draw_bands(drawing: Drawing, chart: model.Chart, fx: _Mapper, fy: _Mapper) -> None:
+    """Each band as a light grey area between its lower and upper curve, under the lines."""
+    for band in chart.bands:
+        if len(band.lower) < 2 or len(band.upper) < 2:
+            continue
+        outline = [(fx(x), fy(y)) for x, y in band.upper]
+        outline += [(fx(x), fy(y)) for x, y in reversed(band.lower)]
+        drawing.add(
+            Polygon(
+                [c for p in outline for c in p],
+                fillColor=BAND_GREY,
+                strokeColor=None,
+                strokeWidth=0,
+            )
+        )
+
+
+def draw_bars(chart: model.BarChart, width: float, height: float) -> Drawing:
+    """Signed horizontal bars about a zero line, one per input, labelled on the left."""
+    drawing = Drawing(width, height)
+    drawing.initialFontName = FONT
+    drawing.add(String(0, height - 9, chart.title, fontName=BOLD, fontSize=7.8))
+    label_w = 0.45 * width
+    left, right = label_w + 4, width - 30
+    zero = (left + right) / 2
+    half = (right - left) / 2
+    top = height - 18
+    row = min(14.0, (top - 20) / max(len(chart.bars), 1))
+    for index, (label, value) in enumerate(chart.bars):
+        y = top - (index + 1) * row
+        drawing.add(
+            String(
+                label_w,
+                y + 2,
+                fit(label, FONT, 6.5, label_w),
+                fontName=FONT,
+                fontSize=6.5,
+                textAnchor="end",
+            )
+        )
+        x0, x1 = sorted((zero, zero + value * half))
+        drawing.add(
+            Rect(
+                x0,
+                y,
+                max(x1 - x0, 0.5),
+                row * 0.6,
+                fillColor=BAR_GREY,
+                strokeColor=colors.black,
+                strokeWidth=0.4,
+            )
+        )
+        end = zero + value * half
+        drawing.add(
+            String(
+                end + (3 if value >= 0 else -3),
+                y + 1.5,
+                f"{value:+.2f}".replace("-", "−"),
+                fontName=FONT,
+                fontSize=6.3,
+                textAnchor="start" if value >= 0 else "end",
+            )
+        )
+    bottom = top - len(chart.bars) * row - 4
+    drawing.add(Line(zero, bottom, zero, top, strokeColor=colors.black, strokeWidth=0.6))
+    for tick in (-1.0, -0.5, 0.0, 0.5, 1.0):
+        x = zero + tick * half
+        drawing.add(Line(x, bottom - 2, x, bottom, strokeColor=colors.black, strokeWidth=0.5))
+        drawing.add(
+            String(
+                x,
+                bottom - 9,
+                f"{tick:g}".replace("-", "−"),
+                fontName=FONT,
+                fontSize=6,
+                textAnchor="middle",
+            )
+        )
+    drawing.add(Line(left, bottom, right, bottom, strokeColor=colors.black, strokeWidth=0.5))
+    drawing.add(String(zero, 1, chart.axis_label, fontName=FONT, fontSize=6.3, textAnchor="middle"))
+    return drawing
+
+
+def _spread_block(
+    spread: model.SpreadView | None, width: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
+    """A case's figures over the samples, what to measure first, and what drives it."""
+    if spread is None:
+        return []
+    heading = _p(spread.heading, st["cellbold"])
+    story: list[Flowable] = [Spacer(1, 5)]
+    table = _grid(spread.table, width * 0.55 if spread.drivers else width, st)
+    if spread.drivers is not None:
+        bars = draw_bars(spread.drivers, width * 0.43, 40 + 14 * len(spread.drivers.bars))
+        pair = Table([[table, bars]], colWidths=[width * 0.57, width * 0.43], hAlign="LEFT")
+        pair.setStyle(
+            TableStyle(
+                [
+                    ("VALIGN", (0, 0), (-1, -1), "TOP"),
+                    ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+                    ("TOPPADDING", (0, 0), (-1, -1), 0),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 0),
+                ]
+            )
+        )
+        story.append(KeepTogether([heading, pair]))
+    else:
+        story.append(KeepTogether([heading, table]))
+    story += [_p(line, st["small"], bulletText="–") for line in spread.advice]
+    return story

@@ -1,0 +1,709 @@
+"""The drying of one case's prep over many samples at once: numpy arrays through time steps.
+
+The equations are those of `ignite.simulate.film` (film patches, mixed convection, the
+film's heat balance, the well-mixed drape pocket) and the timeline that of
+`ignite.simulate.drying` (open air until draping; the slow film for drying, the fastest
+film for the pocket; the safe draping time as the earliest draping that keeps the pocket's
+peak within its margin). What differs is how they are solved: every sample advances
+together, each with its own step (at most 2 % of the flammable liquid, and of what is
+left of any component, per step; at most 60 s), by Heun's method; the film temperature by
+Newton's method on the heat balance; vapour pressures and enthalpies of vaporisation from
+tables in T (0.1 K), a binary's ln γ from a table in T (2 K, as the scalar solver) and x₁
+(201 points) built once per preparation by direct UNIFAC calls.
+
+Which side it errs on: a time is read at the end of the step in which it is passed
+(drying, the film gone), and the safe draping time is the upper end of its last bracket,
+so each errs late; tests/simulate/test_batch.py checks drying times, pocket peaks and
+safe draping times against the scalar solver on the sample cases and states the
+tolerance. Preparations of three or more components are left to the scalar solver.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import TYPE_CHECKING
+
+from ignite.physics.evaporation import (
+    AIR_MOLAR_MASS,
+    GAS_CONSTANT,
+    STANDARD_GRAVITY,
+    STEFAN_BOLTZMANN,
+    air_heat_capacity,
+    air_kinematic_viscosity,
+    air_thermal_conductivity,
+)
+from ignite.physics.vapour import (
+    STANDARD_PRESSURE,
+    WATER_CAS,
+    activity_model,
+    enthalpy_of_vaporisation,
+    substance,
+    vapour_pressure,
+)
+from ignite.rules.bound import PrepAssumptions
+from ignite.simulate.drying import HORIZON
+from ignite.simulate.film import BREAKUP_THICKNESS, film_diffusivities
+from ignite.simulate.preparation import PreparationAnalysis
+
+if TYPE_CHECKING:
+    import numpy as np
+    import numpy.typing as npt
+
+    Array = npt.NDArray[np.float64]
+
+__all__ = ["BatchDrying", "BatchInputs", "batch_supported", "dry_batch", "gamma_table"]
+
+STEP_CHANGE = 0.02
+"""Largest share of the flammable liquid (and of any component left) one step may remove."""
+SAFE_TOLERANCE = 0.01
+"""Relative width at which the bisection for the safe draping time stops (its upper end is kept)."""
+STEP_STABLE = 0.5
+"""Largest share of what is left of any one component one step may remove."""
+GONE_SHARE = 1e-6
+"""Below this share of what was applied, a component (or the flammable liquid) no longer
+limits the step: it is gone for every figure read (the dry fraction is 1e-2, gone 1e-4)."""
+STEP_MAX = 60.0
+"""Longest step [s]."""
+STEP_MIN = 1e-3
+"""Shortest step [s]."""
+T_GRID = 0.1
+"""Spacing [K] of the vapour-pressure and enthalpy tables."""
+GAMMA_T_SPACING = 2.0
+"""Spacing [K] of the activity-coefficient table in T, as the scalar solver's nodes."""
+GAMMA_X_POINTS = 201
+"""Points of the activity-coefficient table in x₁."""
+
+
+def batch_supported(analysis: PreparationAnalysis) -> bool:
+    """One or two components: the activity coefficients come from a table in (T, x₁)."""
+    return len(analysis.cas) <= 2
+
+
+@dataclass(frozen=True)
+class BatchInputs:
+    """One case's prep application over S samples: arrays of shape (S,), SI units."""
+
+    volume: Array
+    area: Array
+    skin_temperature: Array
+    air_temperature: Array
+    relative_humidity: Array
+    air_speed: Array
+    draping_after: Array
+    first_activation_after: Array
+    pocket_volume: Array
+    pocket_exchange: Array
+    hair_still_layer: Array
+    hair_exposed_fraction: Array
+    pooling_volume_fraction: Array
+    pooling_area_fraction: Array
+    tissue_conductance: Array
+    hair: bool
+    pooling: bool
+
+
+@dataclass(frozen=True)
+class BatchDrying:
+    """What the samples' preps did (arrays (S,)); times are math.inf when never."""
+
+    drying_time_s: Array
+    left_at_activation: Array  # flammable liquid left at first activation, fraction
+    pocket_peak: Array  # fraction of the LFL, drapes as planned (fastest film)
+    safe_draping_after_s: Array
+    # the planned slow film: in open air (K, S) until draping, then covered (L, S)
+    open_times: Array
+    open_left: Array
+    covered_times: Array
+    covered_left: Array
+    draping_after: Array
+
+    def left_on(self, times: Array) -> Array:
+        """Flammable liquid left (fraction) of every sample at each of `times`: (S, Q)."""
+        import numpy as np
+
+        rows = []
+        for s in range(self.open_times.shape[1]):
+            before = np.interp(times, self.open_times[:, s], self.open_left[:, s])
+            after = np.interp(times, self.covered_times[:, s], self.covered_left[:, s])
+            rows.append(np.where(times < self.draping_after[s], before, after))
+        return np.array(rows)
+
+
+# --- property tables ------------------------------------------------------------------------
+
+
+@lru_cache(maxsize=32)
+def _property_table(cas: str, kind: str) -> tuple[float, Array]:
+    """(first T, values on T_GRID) of ln P_sat or ΔH_vap of one substance, 273.2-370 K
+    (water's IAPWS-95 correlation starts at 273.15 K; a film is never that cold here)."""
+    import numpy as np
+
+    temperatures = np.arange(2732, 3701) * T_GRID
+    if kind == "psat":
+        values = [vapour_pressure(cas, float(t)) for t in temperatures]
+        table = np.log(np.maximum(np.array(values), 1e-300))
+    else:
+        table = np.array([enthalpy_of_vaporisation(cas, float(t)) for t in temperatures])
+    return float(temperatures[0]), table
+
+
+def _lookup(cas: str, kind: str, temperature: Array) -> Array:
+    import numpy as np
+
+    start, table = _property_table(cas, kind)
+    position = np.clip((temperature - start) / T_GRID, 0.0, len(table) - 1.000001)
+    low = np.floor(position).astype(int)
+    weight = position - low
+    between = (1.0 - weight) * table[low] + weight * table[low + 1]
+    found: Array = np.exp(between) if kind == "psat" else between
+    return found
+
+
+_GAMMA_NODES: dict[tuple[tuple[str, str], int], Array] = {}
+
+
+def gamma_table(cas: tuple[str, str], node: int) -> Array:
+    """ln γ of a binary at T = node·2 K on GAMMA_X_POINTS values of x₁: shape (points, 2),
+    by direct UNIFAC calls (`activity_model`), kept per process."""
+    import numpy as np
+
+    key = (cas, node)
+    found = _GAMMA_NODES.get(key)
+    if found is None:
+        model = activity_model(cas)
+        temperature = node * GAMMA_T_SPACING
+        grid = np.clip(np.linspace(0.0, 1.0, GAMMA_X_POINTS), 1e-12, 1.0 - 1e-12)
+        found = np.log(np.array([model(temperature, [x, 1.0 - x]) for x in grid]))
+        _GAMMA_NODES[key] = found
+    return found
+
+
+def _gammas(cas: tuple[str, ...], temperature: Array, x1: Array) -> Array:
+    """γ of each component, shape (..., 2): ln γ bilinear in (T, x₁) between table nodes."""
+    import numpy as np
+
+    if len(cas) == 1:
+        return np.ones((*temperature.shape, 1))
+    pair = (cas[0], cas[1])
+    position = temperature / GAMMA_T_SPACING
+    low = np.floor(position).astype(int)
+    weight = (position - low)[..., None]
+    xs = np.clip(x1, 0.0, 1.0) * (GAMMA_X_POINTS - 1)
+    xi = np.minimum(np.floor(xs).astype(int), GAMMA_X_POINTS - 2)
+    xw = (xs - xi)[..., None]
+    result = np.zeros((*temperature.shape, 2))
+    for node in np.unique(low):
+        for offset, share in ((0, 1.0 - weight), (1, weight)):
+            table = gamma_table(pair, int(node) + offset)
+            at = (1.0 - xw) * table[xi] + xw * table[xi + 1]
+            result += np.where((low == node)[..., None], share * at, 0.0)
+    return np.exp(result)
+
+
+# --- the model ----------------------------------------------------------------------------
+
+
+class _Batch:
+    """The film patches and pocket of every sample, and their right-hand sides."""
+
+    def __init__(
+        self, analysis: PreparationAnalysis, given: BatchInputs, assumptions: PrepAssumptions
+    ) -> None:
+        import numpy as np
+
+        self.cas = tuple(analysis.cas)
+        n = len(self.cas)
+        s = len(given.volume)
+        self.samples = s
+        self.pressure = STANDARD_PRESSURE
+        self.skin = given.skin_temperature
+        self.air = given.air_temperature
+        self.speed = given.air_speed
+        self.under_speed = assumptions.under_drape_air_speed
+        self.conductance = given.tissue_conductance
+        self.emissivity = assumptions.film_emissivity
+        self.pocket_volume = given.pocket_volume
+        self.pocket_exchange = given.pocket_exchange
+        # patches, as film_patches: (S, P)
+        exposed = given.hair_exposed_fraction if given.hair else np.ones(s)
+        layer = given.hair_still_layer if given.hair else np.zeros(s)
+        if given.pooling:
+            pool_area = given.area * given.pooling_area_fraction
+            volumes = [given.volume * (1 - given.pooling_volume_fraction)]
+            volumes.append(given.volume * given.pooling_volume_fraction)
+            areas = [given.area - pool_area, pool_area]
+            self.sheltered = np.array([False, True])
+        else:
+            volumes, areas = [given.volume], [given.area]
+            self.sheltered = np.array([False])
+        self.patch_area = np.stack([a * exposed for a in areas], axis=1)
+        self.flow_length = np.stack([np.sqrt(a) for a in areas], axis=1)
+        self.layer = layer[:, None]
+        patch_volume = np.stack(volumes, axis=1)
+        # properties at the boundary layer's mean temperature, per sample
+        mean = 0.5 * (self.skin + self.air)
+        self.viscosity = np.array([air_kinematic_viscosity(t, self.pressure) for t in mean])
+        self.k_air = np.array([air_thermal_conductivity(t, self.pressure) for t in mean])
+        density = self.pressure * AIR_MOLAR_MASS / (GAS_CONSTANT * mean)
+        self.rho_cp = density * np.array([air_heat_capacity(t) for t in mean])
+        self.alpha = self.k_air / self.rho_cp
+        self.diffusivity = np.array(
+            [film_diffusivities(analysis, assumptions, float(t), self.pressure)[0] for t in mean]
+        )  # (S, n)
+        self.molar_mass = np.array([substance(c).molar_mass for c in self.cas])
+        self.volatile = np.array(
+            [vapour_pressure(c, float(given.skin_temperature[0])) > 0.0 for c in self.cas]
+        )
+        self.flammable = np.array(analysis.flammable)
+        self.lfl = np.array([lfl if lfl is not None else math.inf for lfl in analysis.lfls])
+        self.molar_volume = np.array(analysis.molar_volumes)
+        x0 = np.array(analysis.mole_fractions)
+        per_mole = float(x0 @ self.molar_volume)
+        self.initial = (patch_volume / per_mole)[:, :, None] * x0  # (S, P, n)
+        self.room = np.zeros((s, n))
+        if WATER_CAS in self.cas:
+            water = self.cas.index(WATER_CAS)
+            p_water = given.relative_humidity * _lookup(WATER_CAS, "psat", self.air)
+            self.room[:, water] = p_water / (GAS_CONSTANT * self.air)
+        self.flammable_mass0 = self.flammable_mass(self.initial)
+        self.temperature = np.repeat(self.skin[:, None], len(volumes), axis=1)
+        self._transfer_constants()
+
+    def _transfer_constants(self) -> None:
+        """What of the mass-transfer coefficients does not change with the film's state:
+        shapes (S, P, n) (`ignite.physics.evaporation.film_mass_transfer_coefficient`)."""
+        import numpy as np
+
+        d = self.diffusivity[:, None, :]
+        nu = self.viscosity[:, None, None]
+        schmidt = nu / d
+        # every branch of the laminar-plate correlation is a factor of Sc times Re^½
+        factor = np.select(
+            [schmidt < 0.005, schmidt < 0.05, schmidt < 10.0],
+            [1.128 * np.sqrt(schmidt), np.sqrt(schmidt), 0.664 * np.cbrt(schmidt)],
+            0.678 * np.cbrt(schmidt),
+        )
+        flow = self.flow_length[:, :, None]
+        area = self.patch_area[:, :, None]
+        # k_forced = factor·√(u·L/ν)·D/L = forced·√u
+        self.forced = np.where(
+            self.sheltered[None, :, None], 0.0, factor * np.sqrt(flow / nu) * d / flow
+        )
+        length = np.sqrt(area) / 4.0
+        self.rayleigh_per_buoyancy = STANDARD_GRAVITY * length**3 / nu**2 * schmidt
+        self.natural_scale = d / length
+        self.floor = 8.0 * d / (math.pi * np.sqrt(4.0 * area / math.pi))
+        lewis = self.alpha[:, None, None] / d
+        self.heat_factor = self.rho_cp[:, None, None] * lewis ** (2.0 / 3.0)
+        self.layer_resistance = self.layer[:, :, None] / d
+
+    def flammable_mass(self, moles: Array) -> Array:
+        import numpy as np
+
+        weights = np.where(self.flammable, self.molar_mass, 0.0)
+        found: Array = (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
+        return found
+
+    def left(self, moles: Array) -> Array:
+        import numpy as np
+
+        with np.errstate(invalid="ignore", divide="ignore"):
+            share = self.flammable_mass(moles) / self.flammable_mass0
+        return np.clip(np.nan_to_num(share), 0.0, 1.0)
+
+    def pocket_index(self, concentrations: Array) -> Array:
+        import numpy as np
+
+        to_fraction = GAS_CONSTANT * self.air[:, None] / self.pressure
+        fractions = np.maximum(concentrations, 0.0) * to_fraction
+        found: Array = np.sum(np.where(self.flammable, fractions / self.lfl, 0.0), axis=1)
+        return found
+
+    # -- the liquid surface --------------------------------------------------------------
+
+    def _surface(
+        self,
+        temperature: Array,
+        x: Array,
+        far: Array,
+        covered: Array,
+        fastest: bool,
+    ) -> tuple[Array, Array]:
+        """(heat surplus [W/m²], fluxes [mol/(m²·s)]) of every patch, shapes (S,P), (S,P,n)."""
+        import numpy as np
+
+        t = temperature
+        gammas = _gammas(self.cas, t, x[..., 0])
+        psat = np.stack([_lookup(c, "psat", t) for c in self.cas], axis=-1)
+        partial = np.where(self.volatile, x * gammas * psat, 0.0)
+        fractions = partial / self.pressure
+        surface_mass = (1.0 - fractions.sum(-1)) * AIR_MOLAR_MASS + fractions @ self.molar_mass
+        far_fractions = np.maximum(far, 0.0) * GAS_CONSTANT * self.air[:, None] / self.pressure
+        rest = np.maximum(1.0 - far_fractions.sum(-1), 0.0)
+        far_mass = (rest * AIR_MOLAR_MASS + far_fractions @ self.molar_mass)[:, None]
+        if fastest:
+            surface_mass = np.full_like(t, AIR_MOLAR_MASS)
+            far_mass = np.full_like(t, AIR_MOLAR_MASS)
+        buoyancy = 1.0 - surface_mass * self.air[:, None] / (far_mass * t)
+        root_speed = np.sqrt(np.where(covered, self.under_speed, self.speed))[:, None]
+        lift = np.maximum(buoyancy, 0.0)
+        fluxes = np.zeros_like(x)
+        latent = np.zeros_like(t)
+        h_sum = np.zeros_like(t)
+        count = 0
+        for i, cas in enumerate(self.cas):
+            if not self.volatile[i]:
+                continue
+            k_forced = self.forced[..., i] * root_speed
+            rayleigh = self.rayleigh_per_buoyancy[..., i] * lift
+            sh_natural = np.where(
+                rayleigh <= 1e7, 0.54 * np.sqrt(np.sqrt(rayleigh)), 0.15 * np.cbrt(rayleigh)
+            )
+            k_natural = sh_natural * self.natural_scale[..., i]
+            k_mixed = np.cbrt(k_forced**3 + k_natural**3)
+            k = np.maximum(k_mixed, self.floor[..., i])
+            h_sum = h_sum + k * self.heat_factor[..., i]
+            count += 1
+            k = 1.0 / (1.0 / k + self.layer_resistance[..., i])
+            flux = k * (partial[..., i] / (GAS_CONSTANT * t) - far[:, None, i])
+            fluxes[..., i] = flux
+            latent = latent + flux * _lookup(cas, "dh", t)
+        h = h_sum / max(count, 1)
+        h = np.where(
+            (self.layer > 0.0) & (h > 0.0), 1.0 / (1.0 / h + self.layer / self.k_air[:, None]), h
+        )
+        air = self.air[:, None]
+        h_r = self.emissivity * STEFAN_BOLTZMANN * (t + air) * (t**2 + air**2)
+        surplus = (
+            self.conductance[:, None] * (self.skin[:, None] - t) + (h + h_r) * (air - t) - latent
+        )
+        return surplus, fluxes
+
+    def fluxes(self, moles: Array, far: Array, covered: Array, fastest: bool) -> Array:
+        """Fluxes of every patch at its film temperature (the heat balance, or the warmest)."""
+        import numpy as np
+
+        total = np.maximum(moles, 0.0).sum(-1)
+        x = np.where(
+            total[..., None] > 0.0,
+            np.maximum(moles, 0.0) / np.maximum(total, 1e-300)[..., None],
+            0.0,
+        )
+        if fastest:
+            warm = np.maximum(self.skin, self.air)[:, None] * np.ones_like(total)
+            return self._surface(warm, x, far, covered, True)[1]
+        # As the scalar solver: bracket the root from the last temperature, widening
+        # down (and up) until the surplus changes sign, so the same root is found where
+        # buoyancy gives the balance more than one; then regula falsi (Illinois).
+        guess = self.temperature
+        low, high = guess - 0.5, guess + 0.5
+        f_low = self._surface(low, x, far, covered, False)[0]
+        step = np.ones_like(guess)
+        for _ in range(12):
+            below = f_low < 0.0
+            if not below.any():
+                break
+            low = np.where(below, np.maximum(low - step, 150.0), low)
+            step = np.where(below, 2.0 * step, step)
+            f_low = np.where(below, self._surface(low, x, far, covered, False)[0], f_low)
+        f_high = self._surface(high, x, far, covered, False)[0]
+        step = np.ones_like(guess)
+        for _ in range(12):
+            above = f_high > 0.0
+            if not above.any():
+                break
+            high = np.where(above, high + step, high)
+            step = np.where(above, 2.0 * step, step)
+            f_high = np.where(above, self._surface(high, x, far, covered, False)[0], f_high)
+        side = np.zeros_like(guess)
+        t = guess
+        for _ in range(40):
+            previous = t
+            with np.errstate(divide="ignore", invalid="ignore"):
+                t = np.where(f_low != f_high, (low * f_high - high * f_low) / (f_high - f_low), low)
+            t = np.clip(t, np.minimum(low, high), np.maximum(low, high))
+            if np.all(np.abs(t - previous) < 1e-6):
+                break
+            f_t = self._surface(t, x, far, covered, False)[0]
+            positive = f_t > 0.0
+            # Illinois: halve the value kept at the end that stays, so both ends move
+            f_high = np.where(positive & (side == 1.0), 0.5 * f_high, f_high)
+            f_low = np.where(~positive & (side == -1.0), 0.5 * f_low, f_low)
+            low = np.where(positive, t, low)
+            f_low = np.where(positive, f_t, f_low)
+            high = np.where(positive, high, t)
+            f_high = np.where(positive, f_high, f_t)
+            side = np.where(positive, 1.0, -1.0)
+            if np.all(high - low < 1e-7):
+                break
+        self.temperature = t
+        _surplus, found = self._surface(t, x, far, covered, False)
+        return np.where(total[..., None] > 0.0, found, 0.0)
+
+    def rates(
+        self, moles: Array, pocket: Array, covered: Array, fastest: bool
+    ) -> tuple[Array, Array]:
+        """(d moles/dt (S,P,n), d pocket/dt (S,n))."""
+        import numpy as np
+
+        far = np.where(covered[:, None], pocket, self.room)
+        flux = self.fluxes(moles, far, covered, fastest)
+        liquid = np.maximum(moles, 0.0) @ self.molar_volume
+        wetted = self.patch_area * np.minimum(1.0, liquid / (self.patch_area * BREAKUP_THICKNESS))
+        rate = wetted[..., None] * flux
+        source = rate.sum(axis=1)
+        d_pocket = (
+            source - self.pocket_exchange[:, None] * (pocket - self.room)
+        ) / self.pocket_volume[:, None]
+        return -rate, np.where(covered[:, None], d_pocket, 0.0)
+
+
+def _step_size(model: _Batch, moles: Array, change: Array, cap: Array) -> Array:
+    """Each sample's step: at most STEP_CHANGE of the flammable liquid left, at most
+    STEP_STABLE of any component left (Heun's method is stable to twice a component's
+    e-folding time), at most STEP_MAX and `cap`."""
+    import numpy as np
+
+    weights = np.where(model.flammable, model.molar_mass, 0.0)
+    mass = (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
+    loss = (-np.minimum(change, 0.0) * weights).sum(axis=(1, 2))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        # past a millionth of the flammable liquid nothing read from it changes
+        needed = (loss > 0.0) & (mass > GONE_SHARE * model.flammable_mass0)
+        accurate = np.where(needed, STEP_CHANGE * mass / loss, np.inf)
+        share = np.where(change < 0.0, np.maximum(moles, 0.0) / -change, np.inf)
+    share = np.where(moles > GONE_SHARE * model.initial, share, np.inf)
+    # a patch thinner than twice the breakup film holds under 0.1 % of any application:
+    # it may leave within a step (clipped at zero), not hold every sample's step down
+    liquid = np.maximum(moles, 0.0) @ model.molar_volume
+    thin = liquid < 2.0 * BREAKUP_THICKNESS * model.patch_area
+    share = np.where(thin[..., None], np.inf, share)
+    stable = STEP_STABLE * share.reshape(model.samples, -1).min(axis=1)
+    found: Array = np.clip(np.minimum(np.minimum(accurate, stable), cap), STEP_MIN, STEP_MAX)
+    return found
+
+
+def _heun(
+    model: _Batch,
+    moles: Array,
+    pocket: Array,
+    covered: Array,
+    fastest: bool,
+    cap: Array,
+    start: tuple[Array, Array] | None = None,
+) -> tuple[Array, Array, Array]:
+    """One step of every sample: (moles, pocket, the step taken [s]); `cap` 0 holds a
+    sample. `start`: the rates at the present state, when already computed."""
+    import numpy as np
+
+    d_moles, d_pocket = start or model.rates(moles, pocket, covered, fastest)
+    dt = np.where(cap > 0.0, _step_size(model, moles, d_moles, cap), 0.0)
+    trial = np.maximum(moles + dt[:, None, None] * d_moles, 0.0)
+    trial_pocket = pocket + dt[:, None] * d_pocket
+    d_moles2, d_pocket2 = model.rates(trial, trial_pocket, covered, fastest)
+    moles = np.maximum(moles + 0.5 * dt[:, None, None] * (d_moles + d_moles2), 0.0)
+    pocket = pocket + 0.5 * dt[:, None] * (d_pocket + d_pocket2)
+    return moles, pocket, dt
+
+
+# --- the timeline -----------------------------------------------------------------------------
+
+
+@dataclass
+class _History:
+    times: list[Array]
+    moles: list[Array]
+
+    def at(self, when: Array) -> Array:
+        """Each sample's film at its own time `when` (S,), linear between steps."""
+        import numpy as np
+
+        times = np.array(self.times)  # (K, S)
+        moles = np.array(self.moles)  # (K, S, P, n)
+        index = np.clip((times <= when[None, :]).sum(axis=0) - 1, 0, len(times) - 2)
+        columns = np.arange(times.shape[1])
+        t0, t1 = times[index, columns], times[index + 1, columns]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            weight = np.clip(np.where(t1 > t0, (when - t0) / (t1 - t0), 1.0), 0.0, 1.0)
+        m0, m1 = moles[index, columns], moles[index + 1, columns]
+        found: Array = m0 + weight[:, None, None] * (m1 - m0)
+        return found
+
+
+def _open_air(model: _Batch, dry_fraction: float) -> tuple[_History, Array, Array]:
+    """The slow film in open air from the end of prepping until nearly gone (or the
+    horizon): its history, when each sample was nearly gone (inf: never)."""
+    import numpy as np
+
+    s = model.samples
+    moles = model.initial.copy()
+    pocket = np.zeros_like(model.room)
+    t = np.zeros(s)
+    gone = np.full(s, math.inf)
+    history = _History([t.copy()], [moles.copy()])
+    covered = np.zeros(s, dtype=bool)
+    while True:
+        active = np.isinf(gone) & (t < HORIZON)
+        if not active.any():
+            break
+        cap = np.where(active, HORIZON - t, 0.0)
+        moles, pocket, dt = _heun(model, moles, pocket, covered, False, cap)
+        t = t + dt
+        left = model.left(moles)
+        gone = np.where(np.isinf(gone) & (left <= dry_fraction * 1e-2), t, gone)
+        history.times.append(t.copy())
+        history.moles.append(moles.copy())
+    return history, gone, t
+
+
+def _covered(
+    model: _Batch,
+    start: Array,
+    film: Array,
+    dry_fraction: float,
+    fastest: bool,
+    *,
+    until_peak: bool,
+    watch: Array | None = None,
+) -> tuple[Array, Array, Array, Array, Array, Array]:
+    """Film and pocket from draping at `start` (S,) on. Returns (peak, drying time, left at
+    `watch`, pocket at `watch`, film times (K,S), film left (K,S)).
+
+    until_peak: stop once the peak has passed (the held level below 0.9 of the pocket's,
+    as the scalar solver) or the film is nearly gone; else until the film is nearly gone
+    and the pocket has cleared."""
+    import numpy as np
+
+    s = model.samples
+    moles = film.copy()
+    pocket = model.room.copy()
+    t = start.copy()
+    covered = np.ones(s, dtype=bool)
+    peak = np.zeros(s)
+    dry = np.where(model.left(moles) <= dry_fraction, start, math.inf)
+    watch = np.full(s, math.inf) if watch is None else watch
+    left_at = np.where(watch <= start, model.left(moles), np.nan)
+    pocket_at = np.where(watch <= start, 0.0, np.nan)
+    done = np.zeros(s, dtype=bool)
+    times, lefts = [t.copy()], [model.left(moles)]
+    while True:
+        rates = model.rates(moles, pocket, covered, fastest)
+        if until_peak:
+            # the peak has passed once the level the film's present source would hold the
+            # pocket at is below 0.9 of the pocket's own (as the scalar solver)
+            source = -rates[0].sum(axis=1)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                held = model.pocket_index(source / model.pocket_exchange[:, None])
+            index = model.pocket_index(pocket)
+            passed = (model.pocket_exchange > 0.0) & (held < 0.9 * index) & (t > start)
+            done = done | passed
+        active = ~done & (t < HORIZON)
+        if not active.any():
+            break
+        to_watch = np.where(t < watch, watch - t, np.inf)
+        cap = np.where(active, np.minimum(to_watch, HORIZON - t), 0.0)
+        moles, pocket, dt = _heun(model, moles, pocket, covered, fastest, cap, rates)
+        t = t + dt
+        left = model.left(moles)
+        index = model.pocket_index(pocket)
+        peak = np.maximum(peak, np.where(active, index, 0.0))
+        dry = np.where(np.isinf(dry) & (left <= dry_fraction), t, dry)
+        reached = np.isnan(left_at) & (t >= watch)
+        left_at = np.where(reached, left, left_at)
+        pocket_at = np.where(reached, index, pocket_at)
+        gone = left <= dry_fraction * 1e-2
+        finished = gone if until_peak else gone & (index < 0.0001)
+        finished = finished & ~(np.isnan(left_at) & np.isfinite(watch))
+        done = done | (active & finished)
+        times.append(t.copy())
+        lefts.append(left)
+    left_at = np.where(np.isnan(left_at), model.left(moles), left_at)
+    pocket_at = np.where(np.isnan(pocket_at), model.pocket_index(pocket), pocket_at)
+    return peak, dry, left_at, pocket_at, np.array(times), np.array(lefts)
+
+
+def dry_batch(
+    analysis: PreparationAnalysis, given: BatchInputs, assumptions: PrepAssumptions
+) -> BatchDrying:
+    """Drying time, liquid left at activation, pocket peak and safe draping time of every
+    sample (see the module's note for the method and the side each errs on)."""
+    import numpy as np
+
+    if not batch_supported(analysis):
+        raise ValueError("the batch solver takes preparations of one or two components")
+    slow = _Batch(analysis, given, assumptions)
+    fast = _Batch(analysis, given, assumptions)
+    dry_fraction = assumptions.dry_fraction
+    margin = assumptions.pocket_margin
+    history, gone, end = _open_air(slow, dry_fraction)
+    draping = given.draping_after
+    activation = given.first_activation_after
+    open_times = np.array(history.times)
+    open_left = np.array([slow.left(m) for m in history.moles])
+
+    # as planned: the slow film for drying and the liquid left; the fastest for the pocket
+    film_at_draping = history.at(np.minimum(draping, end))
+    still_there = draping < end
+    _, dry_covered, left_covered, _, covered_times, covered_left = _covered(
+        slow, draping, film_at_draping, dry_fraction, False, until_peak=False, watch=activation
+    )
+    open_dry = _first_time(open_times, open_left, dry_fraction)
+    drying = np.where(still_there, np.where(open_dry <= draping, open_dry, dry_covered), open_dry)
+    left_open = _left_at(open_times, open_left, activation)
+    left_at_activation = np.where(still_there & (activation >= draping), left_covered, left_open)
+    peak, *_ = _covered(fast, draping, film_at_draping, dry_fraction, True, until_peak=False)
+    peak = np.where(still_there, peak, 0.0)
+
+    # the safe draping time: bisection on the draping time, each bracket's upper end safe
+    first, *_ = _covered(
+        fast, np.zeros_like(draping), fast.initial, dry_fraction, True, until_peak=True
+    )
+    low = np.zeros_like(draping)
+    high = np.where(np.isinf(gone), math.inf, gone)
+    safe = np.where(first <= margin, 0.0, high)
+    searching = (first > margin) & np.isfinite(high)
+    for _ in range(40):
+        if not searching.any():
+            break
+        middle = np.where(searching, 0.5 * (low + np.where(np.isfinite(high), high, 0.0)), 0.0)
+        film = history.at(middle)
+        found, *_ = _covered(fast, middle, film, dry_fraction, True, until_peak=True)
+        ok = found <= margin
+        high = np.where(searching & ok, middle, high)
+        low = np.where(searching & ~ok, middle, low)
+        searching = searching & ((high - low) > np.maximum(0.5, SAFE_TOLERANCE * high))
+    safe = np.where((first > margin) & np.isfinite(gone), high, safe)
+
+    return BatchDrying(
+        drying_time_s=drying,
+        left_at_activation=left_at_activation,
+        pocket_peak=peak,
+        safe_draping_after_s=safe,
+        open_times=open_times,
+        open_left=open_left,
+        covered_times=covered_times,
+        covered_left=covered_left,
+        draping_after=draping,
+    )
+
+
+def _first_time(times: Array, left: Array, level: float) -> Array:
+    """Each sample's first time on the grid (end of the step) at which `left` ≤ level."""
+    import numpy as np
+
+    below = left <= level
+    index = np.argmax(below, axis=0)
+    found = times[index, np.arange(times.shape[1])]
+    return np.where(below.any(axis=0), found, math.inf)
+
+
+def _left_at(times: Array, left: Array, when: Array) -> Array:
+    """`left` at each sample's time `when`, read at the last step at or before it (the
+    earlier, wetter state: errs wet)."""
+    import numpy as np
+
+    index = np.clip((times <= when[None, :]).sum(axis=0) - 1, 0, len(times) - 1)
+    found: Array = left[index, np.arange(times.shape[1])]
+    return found

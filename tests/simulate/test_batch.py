@@ -1,0 +1,131 @@
+"""The batch drying solver (ignite.simulate.batch) against the scalar solver
+(ignite.simulate.drying, LSODA to rtol 1e-5), and its activity-coefficient table against
+direct UNIFAC calls (thermo).
+
+Tolerance: on the sample rooms' cases (plain skin, hair, pooling) the two agree within
+0.5 % on drying time, liquid left at activation, pocket peak and safe draping time
+(measured: at most 0.25 %). The figures the sampling uses are the batch's moved
+`BATCH_MARGIN` (2 %) to the safe side, and those are asserted to err late (drying, safe
+draping), wet and high (pocket peak) against the scalar solver's.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pytest
+from conftest import ROOT
+
+from ignite.physics.vapour import activity_model
+from ignite.pipeline import bind, load_room, open_rulebook, vocabulary
+from ignite.simulate import cases as simulate_cases
+from ignite.simulate.batch import GAMMA_T_SPACING, BatchInputs, _gammas, dry_batch
+from ignite.simulate.uncertainty import BATCH_MARGIN
+
+AGREE = 0.005
+
+CASES = [
+    ("day-surgery-head-neck.yaml", 0),  # plain skin
+    ("day-surgery-head-neck.yaml", 1),  # hair
+    ("orthopaedic-periodic-audit.yaml", 0),  # pooling
+]
+
+
+def _inputs(name: str, index: int):  # type: ignore[no-untyped-def]
+    book = open_rulebook()
+    room = load_room(ROOT / "sample_rooms" / name, vocabulary(book))
+    bound = bind(room, book)
+    _, analyses = simulate_cases.preparations(room, bound)
+    case = room.cases[index]
+    assert case.prep is not None and bound.prep is not None
+    outcome = simulate_cases.prep_drying(case, room, bound, analyses)
+    assert outcome is not None
+    a = bound.prep
+    skin = case.prep.skin_temperature or a.skin_temperature_default
+
+    def one(value: float) -> np.ndarray:
+        return np.array([float(value)])
+
+    given = BatchInputs(
+        one(case.prep.volume),
+        one(case.prep.area),
+        one(skin),
+        one(room.environment.temperature),
+        one(room.environment.relative_humidity),
+        one(case.air_speed),
+        one(case.draping_after),
+        one(case.first_activation_after),
+        one(case.drape_pocket.volume),
+        one(case.drape_pocket.exchange),
+        one(a.hair_still_layer),
+        one(a.hair_exposed_fraction),
+        one(a.pooling_volume_fraction),
+        one(a.pooling_area_fraction),
+        one(a.tissue_conductance),
+        case.prep.hair,
+        case.prep.pooling,
+    )
+    return analyses[case.prep.preparation], given, a, outcome[0]
+
+
+@pytest.mark.parametrize(("name", "index"), CASES)
+def test_batch_agrees_with_the_scalar_solver(name: str, index: int) -> None:
+    analysis, given, assumptions, scalar = _inputs(name, index)
+    batch = dry_batch(analysis, given, assumptions)
+    pairs = [
+        (batch.drying_time_s[0], scalar.drying_time_s),
+        (batch.left_at_activation[0], scalar.flammable_left_at_activation_fraction),
+        (batch.pocket_peak[0], scalar.pocket_peak_fraction_of_lfl),
+        (batch.safe_draping_after_s[0], scalar.safe_draping_after_s),
+    ]
+    for found, expected in pairs:
+        assert found == pytest.approx(expected, rel=AGREE, abs=1.0 if expected == 0 else 0)
+    later = 1.0 + BATCH_MARGIN
+    # with the margin, every disagreement is on the safe side
+    assert batch.drying_time_s[0] * later >= scalar.drying_time_s
+    assert batch.safe_draping_after_s[0] * later >= scalar.safe_draping_after_s
+    assert batch.pocket_peak[0] * later >= scalar.pocket_peak_fraction_of_lfl
+    assert min(batch.left_at_activation[0] * later, 1.0) >= (
+        scalar.flammable_left_at_activation_fraction
+    )
+
+
+def test_many_samples_give_each_its_own_figures() -> None:
+    analysis, given, assumptions, scalar = _inputs("day-surgery-head-neck.yaml", 0)
+    doubled = BatchInputs(
+        **{
+            key: (np.concatenate([value, value * (1.5 if key == "volume" else 1.0)]))
+            if isinstance(value, np.ndarray)
+            else value
+            for key, value in vars(given).items()
+        }
+    )
+    batch = dry_batch(analysis, doubled, assumptions)
+    assert batch.drying_time_s[0] == pytest.approx(scalar.drying_time_s, rel=AGREE)
+    assert batch.drying_time_s[1] > batch.drying_time_s[0]  # more liquid dries later
+
+
+@pytest.mark.parametrize("temperature", [291.3, 298.15, 305.15])
+@pytest.mark.parametrize("x1", [0.013, 0.2, 0.5, 0.71, 0.98])
+def test_activity_table_against_direct_unifac(temperature: float, x1: float) -> None:
+    cas = ("67-63-0", "7732-18-5")  # isopropanol, water
+    tabulated = _gammas(cas, np.array([temperature]), np.array([x1]))[0]
+    # the table is linear in T between nodes 2 K apart, as the scalar solver
+    low = np.floor(temperature / GAMMA_T_SPACING) * GAMMA_T_SPACING
+    weight = (temperature - low) / GAMMA_T_SPACING
+    model = activity_model(cas)
+    direct = np.exp(
+        (1 - weight) * np.log(model(low, [x1, 1 - x1]))
+        + weight * np.log(model(low + GAMMA_T_SPACING, [x1, 1 - x1]))
+    )
+    np.testing.assert_allclose(tabulated, direct, rtol=2e-3)
+    # and the nodes' interpolation itself stays within 1 % of UNIFAC at T
+    np.testing.assert_allclose(tabulated, model(temperature, [x1, 1 - x1]), rtol=1e-2)
+
+
+def test_batch_module_is_documented() -> None:
+    import ignite.simulate.batch as batch
+
+    assert batch.__doc__ and "errs" in batch.__doc__
+    assert Path(batch.__file__).name == "batch.py"
