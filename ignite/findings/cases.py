@@ -27,7 +27,7 @@ def _subject(case: CaseResult) -> str:
     return f"case {case.id}: {case.procedure}"
 
 
-def _decided(case: CaseResult, name: str, nominal: float | None) -> float | None:
+def decided(case: CaseResult, name: str, nominal: float | None) -> float | None:
     """A wait a person acts on: over a spread, read at the confidence percentile
     (`ignite.simulate.uncertainty`), never below the central value's; else the central value."""
     found = case.spread.decision(name) if case.spread is not None else None
@@ -37,7 +37,7 @@ def _decided(case: CaseResult, name: str, nominal: float | None) -> float | None
 
 
 def _stop_advice(case: CaseResult) -> str:
-    required = _decided(case, "stop_oxygen_at_least_s", case.required_stop_s)
+    required = decided(case, "stop_oxygen_at_least_s", case.required_stop_s)
     if required is not None and required > 0:
         return sentences.stop_oxygen(
             round_up(required),
@@ -49,7 +49,7 @@ def _stop_advice(case: CaseResult) -> str:
 
 def _drape_advice(case: CaseResult, scope: Scope) -> str:
     prep = scope.bound.prep
-    safe = _decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s)
+    safe = decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s)
     if safe is None or not case.prep_flammable:
         return sentences.NO_FLAMMABLE_PREP
     label_minimum = prep.label_minimum_hairless if prep else None
@@ -84,7 +84,7 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "oxidant_at_activation": format_si(case.oxidant_at_activation_fraction, "fraction"),
         "planned_stop": format_duration(case.stop_before_activation_s),
         "required_stop": format_duration(
-            round_up(_decided(case, "stop_oxygen_at_least_s", case.required_stop_s))
+            round_up(decided(case, "stop_oxygen_at_least_s", case.required_stop_s))
         ),
         "ceiling_stop": format_duration(round_up(case.ceiling_stop_s)),
         "stop_mitigation": _stop_advice(case),
@@ -96,7 +96,7 @@ def _context(scope: Scope, case: CaseResult) -> Context:
         "activation_wait": sentences.activation_wait(case.drying_time_s, HORIZON),
         "open_air_drying": sentences.open_air_drying(case.open_air_drying_time_s, HORIZON),
         "safe_draping": format_duration(
-            round_up(_decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s))
+            round_up(decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s))
         ),
         "draping_after": format_duration(case.draping_after_s),
         "first_activation": format_duration(case.first_activation_after_s),

@@ -813,6 +813,14 @@ RESULT_WORDS = {
     "floor.highest_reading": "the highest floor reading",
     "floor.mean_reading": "the average floor reading",
     "floor.shock_current": "the shock current through a person",
+    "case.probability_wet_at_activation": "the chance the prep is still wet at the first "
+    "activation, over the ranges",
+    "case.probability_pocket_above_margin": "the chance the drape pocket exceeds its margin of "
+    "the LFL, over the ranges",
+    "case.probability_enriched_at_activation": "the chance the site is oxygen-enriched at the "
+    "first activation, over the ranges",
+    "case.probability_spark_above_mie": "the chance a spark exceeds the site's MIE, over the "
+    "ranges",
     "electrical.bonding_resistance": "a bonding reading to the equipotential bonding bar",
     "electrical.imd_alarm_setting": "the insulation monitor's alarm setting",
     "electrical.imd_alarm_tested": "the insulation monitor's tested alarm point",

@@ -19,7 +19,7 @@ import re
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass, replace
 
-from ignite.findings.cases import round_up
+from ignite.findings.cases import decided, round_up
 from ignite.records.results import (
     SEVERITIES,
     CardiacCaseResult,
@@ -500,7 +500,11 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
     rows.append((say.washout_to(limit_text), format_duration(round_up(case.washout_s)), "", ""))
     if case.stop_before_activation_s is not None:
         needed = round_up(
-            case.required_stop_s if case.required_stop_s is not None else case.washout_s
+            decided(
+                case,
+                "stop_oxygen_at_least_s",
+                case.required_stop_s if case.required_stop_s is not None else case.washout_s,
+            )
         )
         assert needed is not None  # round_up keeps a number a number
         planned, needed_text = format_against_limit(case.stop_before_activation_s, needed, "s")
@@ -577,7 +581,8 @@ def _case_view(case: CaseResult, results: Results, enriched: float) -> CaseView:
                 "",
             )
         )
-    safe_draping = round_up(case.safe_draping_after_s)  # as the drape action gives it
+    # as the drape action gives it
+    safe_draping = round_up(decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s))
     if case.draping_after_s is not None and safe_draping is not None:
         planned, safe = format_against_limit(case.draping_after_s, safe_draping, "s")
         rows.append(

@@ -158,6 +158,16 @@ def _styles() -> dict[str, ParagraphStyle]:
         "bullet": ParagraphStyle(
             "bullet", parent=body, leftIndent=10, bulletIndent=0, bulletFontName=FONT
         ),
+        "caution": ParagraphStyle(
+            "caution",
+            parent=body,
+            fontSize=7.8,
+            leading=9.8,
+            spaceAfter=2,
+            leftIndent=10,
+            bulletIndent=0,
+            bulletFontName=FONT,
+        ),
         "title": ParagraphStyle(
             "title", parent=body, fontName=BOLD, fontSize=15, leading=18, spaceAfter=2
         ),
@@ -622,7 +632,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
         story += [_p(view.floor_readings_note, st["small"]), Spacer(1, 2)]
     story.append(KeepTogether([readings]) if len(view.floor_readings.rows) <= 15 else readings)
     if view.floor_chart is not None:
-        story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 140, st)]
+        story += [Spacer(1, 5), _chart_block(view.floor_chart, width, 120, st)]
 
     story += [
         CondPageBreak(50 * mm),
@@ -635,7 +645,7 @@ def _room(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
     if view.voltage_chart is not None:
         # a legend of more than three rows takes its room from below, not from the plot
         rows = len(_legend_rows(view.voltage_chart, width - 50))
-        height = 185 + 10 * max(0, rows - 3)
+        height = 160 + 10 * max(0, rows - 3)
         story += [Spacer(1, 5), _chart_block(view.voltage_chart, width, height, st)]
 
     story += [
@@ -684,15 +694,15 @@ def _electrical(
 def _cautions_and_sign_off(
     view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]
 ) -> list[Flowable]:
-    story: list[Flowable] = [CondPageBreak(60 * mm), _p(say.SECTION_CAUTIONS, st["h2"])]
-    story += [_p(c, st["bullet"], bulletText="•") for c in view.cautions]
+    story: list[Flowable] = [CondPageBreak(30 * mm), _p(say.SECTION_CAUTIONS, st["h2"])]
+    story += [_p(c, st["caution"], bulletText="•") for c in view.cautions]
     decisions = [_p(d, st["tick"], bulletText=say.TICK_BOX) for d in view.sign_off_decisions]
     rows: list[list[Any]] = [[_p(h, st["cellbold"]) for h in say.SIGN_OFF_HEADERS]]
     rows += [[_p(role, st["cellbold"]), "", "", ""] for role in view.sign_off_roles]
     signatures = Table(
         rows,
         colWidths=_widths((1.1, 2.0, 2.0, 1.0), width),
-        rowHeights=[None] + [30] * len(view.sign_off_roles),
+        rowHeights=[None] + [24] * len(view.sign_off_roles),
         hAlign="LEFT",
     )
     signatures.setStyle(TableStyle(_table_style()))
@@ -761,10 +771,27 @@ PLAN_FILLS = {  # grey levels: the row's name, not its shade, says what a bar is
 }
 
 
+class _Levels:
+    """Rows for labels along one line: a label goes to the lowest row where it overlaps
+    none already placed (at most three rows; a fourth label shares the third)."""
+
+    def __init__(self, gap: float) -> None:
+        self.gap = gap
+        self.rows: list[list[tuple[float, float]]] = [[], [], []]
+
+    def place(self, start: float, end: float) -> int:
+        for level, row in enumerate(self.rows):
+            if all(end + self.gap <= a or start >= b + self.gap for a, b in row):
+                row.append((start, end))
+                return level
+        self.rows[-1].append((start, end))
+        return len(self.rows) - 1
+
+
 def _plan_drawing(plan: Plan, width: float) -> Drawing:
     """The cases' timelines on one shared axis, one block of three bars a case."""
     left, right = PLAN_LABEL_WIDTH, width - 30.0
-    per_case = 19.0 + 3 * PLAN_ROW + 9.0
+    per_case = 35.0 + 3 * PLAN_ROW + 16.0
     axis_room = 22.0
     height = len(plan.cases) * (per_case + PLAN_CASE_GAP) + axis_room
     drawing = Drawing(width, height)
@@ -780,7 +807,7 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
         drawing.add(
             String(0, top - 8, fit(case.label, BOLD, 7.5, width), fontName=BOLD, fontSize=7.5)
         )
-        rows_top = top - 20
+        rows_top = top - 36
         rows = (
             (say.PLAN_ROW_WET, case.wet, "wet"),
             (say.PLAN_ROW_POCKET, case.pocket, "pocket"),
@@ -816,6 +843,8 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
                             String(x1 + 6, y + 1.8, piece.text, fontName=FONT, fontSize=6.3)
                         )
         bottom = rows_top - 3 * PLAN_ROW
+        above = _Levels(2.0)  # letters of marks close together stack, rather than overlap
+        below = _Levels(0.5)
         for mark in case.marks:
             x = x_of(mark.at)
             drawing.add(
@@ -830,8 +859,16 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
                 )
             )
             text = f"{mark.letter}{say.PLAN_TOO_EARLY if mark.wrong else ''}"
+            level = above.place(x - 5, x + 5)
             drawing.add(
-                String(x, rows_top + 1.2, text, fontName=BOLD, fontSize=7, textAnchor="middle")
+                String(
+                    x,
+                    rows_top + 1.2 + 7.2 * level,
+                    text,
+                    fontName=BOLD,
+                    fontSize=7,
+                    textAnchor="middle",
+                )
             )
             if mark.wrong and mark.safe_at is not None:
                 inside = mark.safe_at <= plan.axis_high_s
@@ -839,17 +876,20 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
                 label = f"{say.PLAN_EARLIEST}{mark.letter} {mark.safe_text}"
                 if not inside:
                     label += " →"
+                width_of = pdfmetrics.stringWidth(label, FONT, 6.3)
+                start = sx - width_of / 2 if inside else sx - width_of
+                level = below.place(start, start + width_of)
                 drawing.add(
                     String(
                         sx,
-                        bottom - 8,
+                        bottom - 8 - 7.2 * level,
                         label,
                         fontName=FONT,
                         fontSize=6.3,
                         textAnchor="middle" if inside else "end",
                     )
                 )
-        top = bottom - 9.0
+        top = bottom - 16.0
     # the shared axis
     axis_y = axis_room - 6
     drawing.add(Line(left, axis_y, right, axis_y, strokeColor=colors.black, strokeWidth=0.6))

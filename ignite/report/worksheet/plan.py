@@ -5,8 +5,8 @@ when the drape pocket's vapour is above its margin of the LFL, when the site's o
 above the oxygen-enriched limit, and the planned marks (drapes on, oxygen stopped, first
 activation). A planned time that comes too early (or an oxygen stop too late) is marked,
 with the earliest (latest) safe time beside it: the same figure, rounded the same way, as
-the finding's action (`ignite.findings.cases.round_up`), so the page never gives two
-values for one quantity.
+the finding's action (`ignite.findings.cases.decided`: over a spread, the percentile the
+decisions use; then `round_up`), so the page never gives two values for one quantity.
 
 The action list gives each distinct mitigation once, in the order of the worst finding
 that asks for it, with the numbers of the findings it answers.
@@ -20,7 +20,7 @@ import re
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 
-from ignite.findings.cases import OPEN_DELIVERY, round_up
+from ignite.findings.cases import OPEN_DELIVERY, decided, round_up
 from ignite.records.results import CaseResult, Finding, Results
 from ignite.wording import sentences as say
 from ignite.wording.numbers import format_duration
@@ -235,7 +235,7 @@ def _marks(case: CaseResult) -> tuple[Mark, ...]:
         marks.append(_mark("drape", say.PLAN_MARK_DRAPE, case.draping_after_s, wrong, earliest))
     stop = _stop_at(case)
     if stop is not None and case.first_activation_after_s is not None:
-        needed = round_up(case.required_stop_s)
+        needed = round_up(decided(case, "stop_oxygen_at_least_s", case.required_stop_s))
         latest = None
         if needed is not None and math.isfinite(needed) and case.oxygen_enriched:
             latest = case.first_activation_after_s - needed
@@ -268,9 +268,10 @@ def _mark(kind: str, letter: str, at: float, wrong: bool, safe: float | None) ->
 
 def _earliest_drape(case: CaseResult) -> float | None:
     """As the drape action words it: the computed time, never before the label's minimum."""
-    if not case.prep_flammable or case.safe_draping_after_s is None:
+    safe = decided(case, "drape_no_earlier_than_s", case.safe_draping_after_s)
+    if not case.prep_flammable or safe is None:
         return None
-    return round_up(max(case.safe_draping_after_s, case.label_minimum_s or 0.0))
+    return round_up(max(safe, case.label_minimum_s or 0.0))
 
 
 def _earliest_activation(case: CaseResult) -> float | None:
