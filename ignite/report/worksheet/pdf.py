@@ -792,7 +792,7 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
     """The cases' timelines on one shared axis, one block of three bars a case."""
     left, right = PLAN_LABEL_WIDTH, width - 30.0
     per_case = 35.0 + 3 * PLAN_ROW + 16.0
-    axis_room = 22.0
+    axis_room = 30.0
     height = len(plan.cases) * (per_case + PLAN_CASE_GAP) + axis_room
     drawing = Drawing(width, height)
     drawing.initialFontName = FONT  # the renderer's starting font; the default is not embedded
@@ -891,7 +891,7 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
                 )
         top = bottom - 16.0
     # the shared axis
-    axis_y = axis_room - 6
+    axis_y = axis_room - 8
     drawing.add(Line(left, axis_y, right, axis_y, strokeColor=colors.black, strokeWidth=0.6))
     high_units = plan.axis_high_s / plan.scale
     for value, text in plan.ticks:
