@@ -105,13 +105,13 @@ BOUNDS: dict[str, Bound] = {
         "voltage",
         Limits("between 100 V and 480 V", low=100.0, high=480.0),
         None,
-        "public low-voltage supplies run from 100 V to 480 V line to line (IEC 60038; memory)",
+        "public low-voltage supplies run from 100 V to 480 V line to line (IEC 60038; to confirm)",
     ),
     "room.mains.frequency": Bound(
         "frequency",
         Limits("between 45 Hz and 65 Hz", low=45.0, high=65.0),
         None,
-        "public supplies run at 50 Hz or 60 Hz (IEC 60038; memory)",
+        "public supplies run at 50 Hz or 60 Hz (IEC 60038; to confirm)",
     ),
     "environment.temperature": Bound(
         "temperature",
@@ -146,7 +146,7 @@ BOUNDS: dict[str, Bound] = {
         "voltage",
         Limits("between 10 V and 1000 V", low=10.0, high=1000.0),
         None,
-        "floor tests apply 10 V, 100 V or 500 V (IEC 61340-4-1; memory); insulation testers "
+        "floor tests apply 10 V, 100 V or 500 V (IEC 61340-4-1; to confirm); insulation testers "
         "reach 1000 V",
     ),
     "floor.point_to_ground[]": Bound(
@@ -176,7 +176,7 @@ BOUNDS: dict[str, Bound] = {
         Limits("between 0 L/min and 100 L/min", low=0.0, high=100.0 * L_PER_MIN),
         Limits("up to 15 L/min", high=15.0 * L_PER_MIN),
         "oxygen flowmeters read to 15 L/min and an anaesthetic machine's flush gives "
-        "35-75 L/min (ISO 80601-2-13; memory); 100 L/min is beyond any medical supply",
+        "35-75 L/min (ISO 80601-2-13; to confirm); 100 L/min is beyond any medical supply",
     ),
     "cases[].oxygen.fraction": Bound(
         "fraction",
@@ -226,7 +226,7 @@ BOUNDS: dict[str, Bound] = {
         "area",
         Limits("between 1 cm^2 and 3 m^2", low=1e-4, high=3.0),
         Limits("10 cm^2 to 1 m^2", low=1e-3, high=1.0),
-        "an adult's whole skin is about 1.6-2.2 m^2 (Mosteller body-surface area; memory); a "
+        "an adult's whole skin is about 1.6-2.2 m^2 (Mosteller body-surface area; to confirm); a "
         "prep covers a site, some hundreds of cm^2",
     ),
     "cases[].prep.skin_temperature": Bound(
@@ -279,7 +279,7 @@ _BONDING = Bound(
     Limits("between 0 Ω and 1 kΩ", low=0.0, high=1e3),
     Limits("up to 1 Ω", high=1.0),
     "a bonding conductor to the equipotential bonding bar reads milliohms to tenths of an "
-    "ohm (IEC 60364-7-710 sets 0.2 Ω; memory); a resistance is never negative, and a "
+    "ohm (IEC 60364-7-710 sets 0.2 Ω; to confirm); a resistance is never negative, and a "
     "reading in kΩ is a slip of unit or an open connection",
 )
 _LEAKAGE = Bound(
@@ -288,14 +288,14 @@ _LEAKAGE = Bound(
     Limits("up to 20 mA", high=0.02),
     "leakage and touch currents of medical equipment read microamperes to a few "
     "milliamperes (IEC 60601-1 allows at most 10 mA of earth leakage in single fault; "
-    "memory); a current is never negative, and amperes are a slip of unit",
+    "to confirm); a current is never negative, and amperes are a slip of unit",
 )
 _MONITOR = Bound(
     "resistance",
     Limits("between 1 kΩ and 1000 MΩ", low=1e3, high=1e9),
     Limits("20 kΩ to 500 kΩ", low=20e3, high=500e3),
     "an insulation monitor of a medical IT system alarms at some tens of kΩ (IEC "
-    "60364-7-710 asks for 50 kΩ or more; memory); MΩ for kΩ is a slip of unit",
+    "60364-7-710 asks for 50 kΩ or more; to confirm); MΩ for kΩ is a slip of unit",
 )
 BOUNDS.update(
     {
@@ -304,7 +304,7 @@ BOUNDS.update(
             Limits("between 100 VA and 100 kVA", low=100.0, high=1e5),
             Limits("0.5 kVA to 10 kVA", low=500.0, high=1e4),
             "medical IT transformers are rated 0.5-10 kVA (IEC 60364-7-710, IEC 61558-2-15; "
-            "memory); write the rating in VA or kVA",
+            "to confirm); write the rating in VA or kVA",
         ),
         "electrical.supply.insulation_monitor.alarm_setting": _MONITOR,
         "electrical.supply.insulation_monitor.tested_alarm_at": _MONITOR,
@@ -341,10 +341,10 @@ TEXT_REASON = "a name or label the worksheet prints on a line or two"
 
 LISTS: dict[str, ListLimit] = {
     "floor.point_to_ground": ListLimit(
-        1000, "readings", "a floor survey takes some tens of readings (EN 1081; memory)"
+        1000, "readings", "a floor survey takes some tens of readings (EN 1081; to confirm)"
     ),
     "floor.point_to_point": ListLimit(
-        1000, "readings", "a floor survey takes some tens of readings (EN 1081; memory)"
+        1000, "readings", "a floor survey takes some tens of readings (EN 1081; to confirm)"
     ),
     "people": ListLimit(100, "groups of people", "one entry per role in one theatre"),
     "trolleys": ListLimit(100, "trolleys", "the trolleys and carts of one theatre"),
