@@ -760,3 +760,22 @@ def test_the_audit_summary_has_its_own_sign_off(tmp_path):
         assert decision in text
     for role in sentences.SIGN_OFF_ROLES:
         assert role in text
+
+
+def test_audit_takes_the_sampling_options(tmp_path):
+    # --nominal: central values only, so no probability in the register; --samples N samples
+    site = tmp_path / "site"
+    site.mkdir()
+    sample = Path(__file__).resolve().parent.parent / "sample_rooms"
+    (site / "o.yaml").write_bytes((sample / "orthopaedic-periodic-audit.yaml").read_bytes())
+    cells = {}
+    for name, options in (("nominal", ["--nominal"]), ("sampled", ["--samples", "10"])):
+        out = tmp_path / name
+        result = CliRunner().invoke(
+            main, ["audit", str(site), "-o", str(out), "--jobs", "1", *options]
+        )
+        assert result.exit_code in (0, 1), result.output
+        rows = list(csv.DictReader((out / "audit-register.csv").open(encoding="utf-8")))
+        cells[name] = rows[0]["worst_probability"]
+    assert cells["nominal"] == ""
+    assert 0.0 <= float(cells["sampled"]) <= 1.0

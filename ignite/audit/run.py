@@ -71,6 +71,7 @@ from ignite.records.register import (
 from ignite.records.results import Results, severity_rank
 from ignite.report.worksheet import render_worksheet
 from ignite.report.worksheet.summary import render_summary
+from ignite.room.ranges import Sampling
 from ignite.rules.rulebook import Rulebook
 from ignite.simulate.compute import METHODS
 
@@ -193,7 +194,14 @@ def _prepare(book: Rulebook, digest: str) -> None:
     _WORKER["book"] = book
 
 
-def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> RoomRun:
+def assess_room(
+    index: int,
+    path: str,
+    file: str,
+    staging: str,
+    paper: str,
+    sampling: Sampling | None = None,
+) -> RoomRun:
     """Assess one room and render its worksheet into the staging folder.
 
     Runs in a worker (after `_start_worker`) or in the parent (after `_prepare`).
@@ -237,7 +245,7 @@ def assess_room(index: int, path: str, file: str, staging: str, paper: str) -> R
         return outcome(ERROR, [f"{file}: {_WORKER['failure']}"])
     book: Rulebook = _WORKER["book"]
     try:
-        bound, results = pipeline.evaluate_room(Path(path), book)
+        bound, results = pipeline.evaluate_room(Path(path), book, sampling)
     except InputError as exc:
         return outcome(INVALID, [str(problem) for problem in exc.problems])
     except SolveLimitError as exc:
@@ -311,6 +319,7 @@ def run_audit(
     force: bool = False,
     progress: Progress | None = None,
     room_timeout: float | None = ROOM_TIMEOUT,
+    sampling: Sampling | None = None,
 ) -> AuditOutcome:
     """Audit every room file under `folder` into `output`.
 
@@ -338,7 +347,7 @@ def run_audit(
     published: list[Path] = []
     try:
         runs = _run_all(
-            rooms, folder, staging, book, rules_dir, jobs, paper, progress, room_timeout
+            rooms, folder, staging, book, rules_dir, jobs, paper, progress, room_timeout, sampling
         )
         names = _worksheet_names(runs)
         report = build_report(folder, runs, names, book, previous, paper)
@@ -405,9 +414,10 @@ def _run_all(
     paper: str,
     progress: Progress | None,
     room_timeout: float | None = None,
+    sampling: Sampling | None = None,
 ) -> list[RoomRun]:
     tasks = [
-        (index, str(path), path.relative_to(folder).as_posix(), str(staging), paper)
+        (index, str(path), path.relative_to(folder).as_posix(), str(staging), paper, sampling)
         for index, path in enumerate(rooms)
     ]
     workers = max(1, min(jobs or os.cpu_count() or 1, len(tasks)))
@@ -433,7 +443,7 @@ def _run_all(
     return sorted(runs, key=lambda run: run.index)
 
 
-Task = tuple[int, str, str, str, str]  # the arguments of assess_room
+Task = tuple[int, str, str, str, str, Sampling | None]  # the arguments of assess_room
 
 
 def _assess_here(task: Task, limit: float | None) -> RoomRun:
@@ -513,7 +523,7 @@ def _outcome(future: Future[RoomRun], task: Task) -> RoomRun:
     try:
         return future.result()
     except Exception as exc:  # a worker died (killed, out of memory, ...)
-        index, _, file, _, _ = task
+        index, _, file, _, _, _ = task
         return RoomRun(
             index,
             file,

@@ -14,8 +14,10 @@ from typing import TYPE_CHECKING, NoReturn
 
 import click
 
+from ignite.cli.options import confidence_option, nominal_option, samples_option, sampling_of
 from ignite.records.register import ERROR
 from ignite.records.results import SEVERITIES
+from ignite.room.ranges import Sampling
 from ignite.wording.sentences import CLI_CAUTION
 
 if TYPE_CHECKING:
@@ -146,6 +148,9 @@ def _room_line(run: RoomRun, done: int, total: int) -> str:
     default="a4",
     show_default=True,
 )
+@samples_option
+@nominal_option
+@confidence_option
 def audit(
     folder: Path,
     output: Path,
@@ -156,6 +161,9 @@ def audit(
     force: bool,
     paper: str,
     room_timeout: float,
+    samples: int | None,
+    nominal: bool,
+    confidence: float | None,
 ) -> None:
     # lazy, for start-up time: every ignite command loads this module, few run an audit
     from ignite.audit.run import AuditInterrupted
@@ -164,7 +172,10 @@ def audit(
     old_handler = signal.signal(signal.SIGTERM, _terminate)
     done: list[AuditOutcome] = []
     try:
-        done.append(_audit(folder, output, previous, jobs, rules_dir, force, paper, room_timeout))
+        sampling = sampling_of(samples, nominal, confidence)
+        done.append(
+            _audit(folder, output, previous, jobs, rules_dir, force, paper, room_timeout, sampling)
+        )
         code = _report(done[0], fail_on)
     except KeyboardInterrupt as exc:
         cause = exc.cause if isinstance(exc, AuditInterrupted) else exc
@@ -188,6 +199,7 @@ def _audit(
     force: bool,
     paper: str,
     room_timeout: float | None = None,
+    sampling: Sampling | None = None,
 ) -> AuditOutcome:
     from ignite.audit.io import RegisterError, existing_audit_files, read_register
     from ignite.audit.run import discover_rooms, run_audit
@@ -238,6 +250,7 @@ def _audit(
             force=force,
             progress=progress,
             room_timeout=room_timeout,
+            sampling=sampling,
         )
     except OutputExistsError as exc:
         _refuse(output, [exc.path.name], exc.exit_code)

@@ -26,6 +26,7 @@ from click.shell_completion import CompletionItem
 from ignite import __version__
 from ignite.cli.audit import audit
 from ignite.cli.names import categories
+from ignite.cli.options import confidence_option, nominal_option, samples_option, sampling_of
 from ignite.errors import (
     EXIT_INTERNAL,
     EXIT_USAGE,
@@ -38,7 +39,6 @@ from ignite.errors import (
 from ignite.pipeline import open_rulebook, rule_rows, run_room, write_room_worksheet
 from ignite.records.results import SEVERITIES, Results
 from ignite.report.text import render_text
-from ignite.room.ranges import DEFAULT_SAMPLES, Sampling
 from ignite.room.schema import json_schema
 from ignite.room.template import TEMPLATE
 from ignite.rules.rulebook import Entry, Rulebook
@@ -64,33 +64,6 @@ fail_on_option = click.option(
     show_default=True,
     help="Exit 1 when a finding is at or above this severity.",
 )
-
-
-samples_option = click.option(
-    "--samples",
-    type=click.IntRange(10, 100_000),
-    default=None,
-    help=f"Latin hypercube samples over the ranges (default {DEFAULT_SAMPLES}); also samples "
-    "the rules' ranges for a room that gives none.",
-)
-nominal_option = click.option(
-    "--nominal", is_flag=True, help="Central values only: do not sample the ranges."
-)
-confidence_option = click.option(
-    "--confidence",
-    type=click.FloatRange(50.0, 99.9),
-    default=None,
-    metavar="PERCENT",
-    help="Percentile at which waits are read from their spread (default from rules/, 95).",
-)
-
-
-def _sampling(samples: int | None, nominal: bool, confidence: float | None) -> Sampling:
-    return Sampling(
-        samples=samples,
-        nominal=nominal,
-        confidence=None if confidence is None else confidence / 100.0,
-    )
 
 
 def _say(message: str) -> None:
@@ -252,7 +225,7 @@ def check(
 ) -> None:
     book = _open_rules(rules_dir)
     records: list[dict[str, Any]] = []
-    sampling = _sampling(samples, nominal, confidence)
+    sampling = sampling_of(samples, nominal, confidence)
 
     def check_room(path: Path) -> int:
         results = run_room(_readable(path), book, sampling)
@@ -306,7 +279,7 @@ def assess(
 ) -> None:
     target = _worksheet_target(output, len(rooms))
     book = _open_rules(rules_dir)
-    sampling = _sampling(samples, nominal, confidence)
+    sampling = sampling_of(samples, nominal, confidence)
 
     def assess_room(path: Path) -> int:
         results, written = write_room_worksheet(
