@@ -324,10 +324,10 @@ def test_an_internal_error_is_listed_and_the_rest_carry_on(
 
     real = ignite.pipeline.evaluate_room
 
-    def failing(path: Path, book: Any) -> Any:
+    def failing(path: Path, book: Any, sampling: Any = None) -> Any:
         if path.name == "t1.yaml":
             raise ZeroDivisionError("simulated")
-        return real(path, book)
+        return real(path, book, sampling)
 
     monkeypatch.setattr(ignite.pipeline, "evaluate_room", failing)
     out = tmp_path / "out"
@@ -688,10 +688,10 @@ def _slow_room(monkeypatch: pytest.MonkeyPatch, name: str, seconds: float) -> No
 
     real = ignite.pipeline.evaluate_room
 
-    def slow(path: Path, book: Any) -> Any:
+    def slow(path: Path, book: Any, sampling: Any = None) -> Any:
         if path.name == name:
             time.sleep(seconds)
-        return real(path, book)
+        return real(path, book, sampling)
 
     monkeypatch.setattr(ignite.pipeline, "evaluate_room", slow)
 
