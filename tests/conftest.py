@@ -104,3 +104,46 @@ PREP_ASSUMPTIONS = PrepAssumptions(
 )
 """The film model's assumptions as in rules/preparations.yaml, with the diffusivities left to
 the Fuller estimate (tests/simulate/test_drying.py checks them against the rule file)."""
+
+
+# A case of the room contract with no preparation: open oxygen on a limb (test_fuzz,
+# test_robustness), and at the head and neck under sedation (test_ranges, test_uncertainty).
+FOREARM_CASE: dict[str, Any] = {
+    "id": 1,
+    "procedure": "excision of a lesion on the forearm",
+    "site": "limb",
+    "oxygen": {
+        "delivery": "face-mask",
+        "flow": "4 L/min",
+        "fraction": "100 %",
+        "nitrous_oxide_flow": "0 L/min",
+        "stop_before_activation": "60 s",
+    },
+    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
+    "prep": "none",
+    "air_speed": "0.2 m/s",
+    "draping_after": "3 min",
+    "first_activation_after": "6 min",
+    "materials": ["cotton"],
+    "ignition_sources": ["monopolar electrosurgery"],
+}
+
+SEDATION_CASE: dict[str, Any] = {
+    "id": "1",
+    "procedure": "excision under sedation",
+    "site": "head-neck",
+    "oxygen": {
+        "delivery": "nasal-cannula",
+        "flow": "4 L/min",
+        "fraction": "100 %",
+        "nitrous_oxide_flow": "0 L/min",
+        "stop_before_activation": "60 s",
+    },
+    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
+    "prep": "none",
+    "air_speed": "0.2 m/s",
+    "draping_after": "3 min",
+    "first_activation_after": "6 min",
+    "materials": ["cotton"],
+    "ignition_sources": ["monopolar electrosurgery"],
+}

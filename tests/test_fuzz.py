@@ -18,6 +18,7 @@ from typing import Any
 import pytest
 import yaml
 from conftest import BASE_ROOM
+from conftest import FOREARM_CASE as CASE
 from fuzz_rooms import NASTY, Tally, check_corpus, check_file, figure_problems, generate
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
@@ -97,25 +98,6 @@ def test_generated_rooms(
 
 # -- hypothesis over the room contract ---------------------------------------------------
 
-CASE: dict[str, Any] = {
-    "id": 1,
-    "procedure": "excision of a lesion on the forearm",
-    "site": "limb",
-    "oxygen": {
-        "delivery": "face-mask",
-        "flow": "4 L/min",
-        "fraction": "100 %",
-        "nitrous_oxide_flow": "0 L/min",
-        "stop_before_activation": "60 s",
-    },
-    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
-    "prep": "none",
-    "air_speed": "0.2 m/s",
-    "draping_after": "3 min",
-    "first_activation_after": "6 min",
-    "materials": ["cotton"],
-    "ignition_sources": ["monopolar electrosurgery"],
-}
 QUANTITY_KEYS: list[tuple[tuple[Any, ...], str]] = [
     (("room", "mains", "voltage"), "V"),
     (("room", "mains", "frequency"), "Hz"),

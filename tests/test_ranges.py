@@ -18,6 +18,7 @@ import pytest
 import yaml
 from click.testing import CliRunner
 from conftest import BASE_ROOM, ROOT
+from conftest import SEDATION_CASE as OXYGEN_CASE
 
 from ignite.cli.main import main
 from ignite.errors import InputError, RuleFileError, UnitError
@@ -26,26 +27,6 @@ from ignite.room.load import load_room_text
 from ignite.room.ranges import Sampling, parse_range, sampling_seed
 from ignite.rules.bind import bind
 from ignite.rules.rulebook import load_rulebook
-
-OXYGEN_CASE: dict[str, Any] = {
-    "id": "1",
-    "procedure": "excision under sedation",
-    "site": "head-neck",
-    "oxygen": {
-        "delivery": "nasal-cannula",
-        "flow": "4 L/min",
-        "fraction": "100 %",
-        "nitrous_oxide_flow": "0 L/min",
-        "stop_before_activation": "60 s",
-    },
-    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
-    "prep": "none",
-    "air_speed": "0.2 m/s",
-    "draping_after": "3 min",
-    "first_activation_after": "6 min",
-    "materials": ["cotton"],
-    "ignition_sources": ["monopolar electrosurgery"],
-}
 
 
 def oxygen_room(**changes: Any) -> dict[str, Any]:

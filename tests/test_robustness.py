@@ -8,30 +8,11 @@ from typing import Any
 import yaml
 from click.testing import CliRunner
 from conftest import BASE_ROOM
+from conftest import FOREARM_CASE as CASE
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from ignite.cli.main import main
-
-CASE: dict[str, Any] = {
-    "id": 1,
-    "procedure": "excision of a lesion on the forearm",
-    "site": "limb",
-    "oxygen": {
-        "delivery": "face-mask",
-        "flow": "4 L/min",
-        "fraction": "100 %",
-        "nitrous_oxide_flow": "0 L/min",
-        "stop_before_activation": "60 s",
-    },
-    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
-    "prep": "none",
-    "air_speed": "0.2 m/s",
-    "draping_after": "3 min",
-    "first_activation_after": "6 min",
-    "materials": ["cotton"],
-    "ignition_sources": ["monopolar electrosurgery"],
-}
 
 PATHS = [
     ("environment", "relative_humidity", "%"),

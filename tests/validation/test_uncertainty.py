@@ -23,31 +23,13 @@ from typing import Any
 import pytest
 import yaml
 from conftest import BASE_ROOM, ROOT
+from conftest import SEDATION_CASE as CASE
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from ignite.pipeline import open_rulebook, run_room
 from ignite.room.ranges import Sampling
 
-CASE: dict[str, Any] = {
-    "id": "1",
-    "procedure": "excision under sedation",
-    "site": "head-neck",
-    "oxygen": {
-        "delivery": "nasal-cannula",
-        "flow": "4 L/min",
-        "fraction": "100 %",
-        "nitrous_oxide_flow": "0 L/min",
-        "stop_before_activation": "60 s",
-    },
-    "drape_pocket": {"volume": "30 L", "exchange": "10 L/min"},
-    "prep": "none",
-    "air_speed": "0.2 m/s",
-    "draping_after": "3 min",
-    "first_activation_after": "6 min",
-    "materials": ["cotton"],
-    "ignition_sources": ["monopolar electrosurgery"],
-}
 AMBIENT, LIMIT = 0.209, 0.235  # rules/oxygen.yaml
 L_PER_MIN = 1e-3 / 60
 

@@ -34,7 +34,7 @@ from ignite.records.results import (
     RuleRow,
     severity_rank,
 )
-from ignite.report.worksheet.plan import Action, Plan, build_plan, list_actions
+from ignite.report.worksheet.plan import Action, Plan, build_plan, list_actions, time_scale
 from ignite.simulate.compute import ELECTRICAL_METHODS
 from ignite.simulate.drying import HORIZON
 from ignite.wording import sentences as say
@@ -1033,15 +1033,6 @@ def log_axis(label: str, low: float, high: float, unit: str) -> Axis:
     return Axis(label=label, low=10.0**first, high=10.0**last, log=True, ticks=ticks)
 
 
-def _time_scale(seconds: float) -> tuple[float, str]:
-    """(seconds per axis unit, unit name) for a time axis reaching `seconds`."""
-    if seconds <= 180:
-        return 1.0, "s"
-    if seconds <= 3 * 3600:
-        return 60.0, "min"
-    return 3600.0, "h"
-
-
 def _finite_points(points: Sequence[tuple[float, float]]) -> list[tuple[float, float]]:
     return [(x, y) for x, y in points if math.isfinite(x) and math.isfinite(y)]
 
@@ -1170,7 +1161,7 @@ def _oxygen_chart(case: CaseResult, enriched: float) -> Chart | None:
     if case.stop_before_activation_s is not None and math.isfinite(case.stop_before_activation_s):
         events.append((case.stop_before_activation_s, say.EVENT_FIRST_ACTIVATION))
     t_max = max([t for t, _ in points] + [t for t, _ in events])
-    scale, unit = _time_scale(t_max)
+    scale, unit = time_scale(t_max)
     top = max([x for _, x in points] + [enriched]) * 100
     return Chart(
         title=say.oxygen_chart_title(case.id),
@@ -1201,7 +1192,7 @@ def _film_chart(case: CaseResult) -> Chart | None:
         if t is not None and math.isfinite(t)
     ]
     t_max = max([t for t, _ in points] + [t for t, _ in events])
-    scale, unit = _time_scale(t_max)
+    scale, unit = time_scale(t_max)
     top = max(x for _, x in points) * 100
     return Chart(
         title=say.film_chart_title(case.id),

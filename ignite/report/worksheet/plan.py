@@ -128,7 +128,7 @@ def build_plan(results: Results) -> Plan | None:
     drafts = [_draft(case, enriched) for case in results.cases]
     ends = [t for draft in drafts for t in draft[1]]
     high = max([LEAST_AXIS_S, *ends]) * AXIS_MARGIN
-    scale, unit = _scale(high)
+    scale, unit = time_scale(high)
     cases = tuple(_clip(draft[0], high) for draft in drafts)
     return Plan(
         axis_high_s=high,
@@ -139,7 +139,9 @@ def build_plan(results: Results) -> Plan | None:
     )
 
 
-def _scale(seconds: float) -> tuple[float, str]:
+def time_scale(seconds: float) -> tuple[float, str]:
+    """(seconds per axis unit, unit name) for a time axis reaching `seconds`: the plan's
+    axis and the worksheet's time charts."""
     if seconds <= 180:
         return 1.0, "s"
     if seconds <= 3 * 3600:
