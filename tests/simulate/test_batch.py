@@ -91,6 +91,40 @@ def test_batch_agrees_with_the_scalar_solver(name: str, index: int) -> None:
     )
 
 
+@pytest.mark.parametrize(
+    ("volume", "exchange"),
+    [(0.005, 60e-3 / 60), (0.002, 100e-3 / 60)],  # time constants V/Q of 5 s and 1.2 s
+)
+def test_a_small_fast_pocket_agrees_with_the_scalar_solver(volume: float, exchange: float) -> None:
+    """A pocket whose time constant is far under the batch's longest step (60 s): an
+    explicit step on the pocket swung and blew up here, the exact step over the linear
+    pocket equation must agree with LSODA (max step half the time constant)."""
+    import dataclasses
+
+    from ignite.simulate import drying
+
+    analysis, given, assumptions, _ = _inputs("day-surgery-head-neck.yaml", 0)
+    given = dataclasses.replace(
+        given, pocket_volume=np.array([volume]), pocket_exchange=np.array([exchange])
+    )
+    batch = dry_batch(analysis, given, assumptions)
+    scalar = drying.simulate_prep(
+        analysis,
+        drying.Film(float(given.volume[0]), float(given.area[0]), float(given.skin_temperature[0])),
+        drying.RoomAir(
+            float(given.air_temperature[0]),
+            float(given.relative_humidity[0]),
+            float(given.air_speed[0]),
+        ),
+        drying.DrapePlan(float(given.draping_after[0]), float(given.first_activation_after[0])),
+        drying.DrapePocket(volume, exchange),
+        assumptions,
+    )
+    assert scalar.pocket_peak_fraction_of_lfl > 0.1  # the pocket matters in this case
+    assert batch.pocket_peak[0] == pytest.approx(scalar.pocket_peak_fraction_of_lfl, rel=AGREE)
+    assert batch.drying_time_s[0] == pytest.approx(scalar.drying_time_s, rel=AGREE)
+
+
 def test_many_samples_give_each_its_own_figures() -> None:
     analysis, given, assumptions, scalar = _inputs("day-surgery-head-neck.yaml", 0)
     doubled = BatchInputs(
