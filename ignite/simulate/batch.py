@@ -6,8 +6,11 @@ film's heat balance, the well-mixed drape pocket) and the timeline that of
 film for the pocket; the safe draping time as the earliest draping that keeps the pocket's
 peak within its margin). What differs is how they are solved: every sample advances
 together, each with its own step (at most 2 % of the flammable liquid, and of what is
-left of any component, per step; at most 60 s), by Heun's method; the film temperature by
-Newton's method on the heat balance; vapour pressures and enthalpies of vaporisation from
+left of any component, per step; at most 60 s), the film by Heun's method, the pocket by
+solving its linear equation exactly over the step (stable however short its time
+constant); the film temperature by Newton's method kept inside a bracket on the heat
+balance; the safe draping time by regula falsi (Illinois) on the draping time, stepping
+only the samples still searching; vapour pressures and enthalpies of vaporisation from
 tables in T (0.1 K), a binary's ln γ from a table in T (2 K, as the scalar solver) and x₁
 (201 points) built once per preparation by direct UNIFAC calls.
 
@@ -45,6 +48,7 @@ from ignite.physics.vapour import (
 from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.drying import HORIZON
 from ignite.simulate.film import BREAKUP_THICKNESS, film_diffusivities
+from ignite.simulate.kept import kept
 from ignite.simulate.preparation import PreparationAnalysis
 
 if TYPE_CHECKING:
@@ -775,11 +779,28 @@ def dry_batch(
     analysis: PreparationAnalysis, given: BatchInputs, assumptions: PrepAssumptions
 ) -> BatchDrying:
     """Drying time, liquid left at activation, pocket peak and safe draping time of every
-    sample (see the module's note for the method and the side each errs on)."""
-    import numpy as np
+    sample (see the module's note for the method and the side each errs on). The same
+    samples solved by the same code before are read from the cache directory when kept
+    there (`ignite.simulate.kept`), identical to solving them again."""
+    import hashlib
 
     if not batch_supported(analysis):
         raise ValueError("the batch solver takes preparations of one or two components")
+    arrays = hashlib.sha256()
+    for name, value in vars(given).items():
+        arrays.update(name.encode("utf-8"))
+        arrays.update(value.tobytes() if hasattr(value, "tobytes") else repr(value).encode())
+    constants = (STEP_CHANGE, STEP_STABLE, STEP_MAX, STEP_MIN, SAFE_TOLERANCE, HORIZON)
+    key = (analysis, arrays.hexdigest(), len(given.volume), assumptions, constants)
+    return kept("drying-batch", key, BatchDrying, lambda: _dry_batch(analysis, given, assumptions))
+
+
+def _dry_batch(
+    analysis: PreparationAnalysis, given: BatchInputs, assumptions: PrepAssumptions
+) -> BatchDrying:
+    """`dry_batch`, solved (not read from the kept results)."""
+    import numpy as np
+
     slow = _Batch(analysis, given, assumptions)
     fast = _Batch(analysis, given, assumptions)
     dry_fraction = assumptions.dry_fraction

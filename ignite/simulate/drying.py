@@ -40,6 +40,7 @@ from ignite.errors import SolveLimitError
 from ignite.physics.vapour import STANDARD_PRESSURE
 from ignite.rules.bound import PrepAssumptions
 from ignite.simulate.film import FilmModel, film_diffusivities, film_patches
+from ignite.simulate.kept import kept
 from ignite.simulate.notes import Note
 from ignite.simulate.preparation import PreparationAnalysis
 
@@ -541,7 +542,9 @@ def simulate_prep(
     peak vapour as a fraction of the LFL (Le Chatelier's index) is compared with
     `assumptions.pocket_margin`; `safe_draping_after_s` is the earliest draping time
     that keeps the peak at or below it (brentq on the peak, which falls as draping waits).
-    Returns a PrepOutcome; times that never come within HORIZON are math.inf.
+    Returns a PrepOutcome; times that never come within HORIZON are math.inf. A solve
+    of the same inputs by the same code is read from the cache directory when kept
+    there (`ignite.simulate.kept`), identical to solving it again.
 
     Worked example, 10 mL of 70 % v/v isopropanol on 400 cm² of skin at 32 °C,
     0.2 m/s of room air at 20 °C and 30 % RH, drapes at 3 min over a 30 L pocket
@@ -569,6 +572,24 @@ def simulate_prep(
         raise ValueError("flows and speeds must not be negative")
     if not any(analysis.flammable):
         return _NOTHING_TO_DRY
+    key = (analysis, film, air, plan, pocket, assumptions, HORIZON, MAX_EVALUATIONS, _RTOL)
+    return kept(
+        "drying",
+        key,
+        PrepOutcome,
+        lambda: _simulate_prep(analysis, film, air, plan, pocket, assumptions),
+    )
+
+
+def _simulate_prep(
+    analysis: PreparationAnalysis,
+    film: Film,
+    air: RoomAir,
+    plan: DrapePlan,
+    pocket: DrapePocket,
+    assumptions: PrepAssumptions,
+) -> PrepOutcome:
+    """`simulate_prep`, solved (not read from the kept results)."""
     dry_fraction = assumptions.dry_fraction
     notes = _application_notes(film, assumptions)
     model, estimated = _film_model(analysis, film, air, pocket, assumptions)
