@@ -1,7 +1,8 @@
 """Drying solves kept on disk between runs, keyed by everything they read.
 
 A drying solve (`ignite.simulate.drying.simulate_prep`, `ignite.simulate.batch.dry_batch`)
-is a pure function of its inputs: the preparation's analysis, the application, the room's
+and a preparation's analysis (`ignite.simulate.preparation.analyse_preparation`, whose
+flash point and vapour need scipy's root finder) are pure functions of their inputs: the preparation's analysis, the application, the room's
 air, the drape plan and pocket, the rules' assumptions, and the solver's own constants.
 It is also the bulk of a run's time, and the same solves come back again and again: a
 room checked and then assessed, a periodic audit of rooms that did not change since the
@@ -38,10 +39,11 @@ T = TypeVar("T")
 @lru_cache(maxsize=1)
 def solver_versions() -> _cache.Versions:
     """The code and libraries a solve's result depends on."""
+    from importlib.metadata import version
+
     import chemicals
     import fluids
     import numpy
-    import scipy
     import thermo
 
     code = hashlib.sha256()
@@ -55,7 +57,7 @@ def solver_versions() -> _cache.Versions:
         ("code", code.hexdigest()),
         ("python", f"{sys.version_info[0]}.{sys.version_info[1]}"),
         ("numpy", str(numpy.__version__)),
-        ("scipy", str(scipy.__version__)),
+        ("scipy", version("scipy")),  # its version without importing it
         ("chemicals", str(chemicals.__version__)),
         ("thermo", str(thermo.__version__)),
         ("fluids", str(fluids.__version__)),

@@ -33,6 +33,7 @@ from ignite.physics.vapour import (
     substance,
     vapour_pressure,
 )
+from ignite.simulate.kept import kept
 from ignite.simulate.notes import Note
 
 __all__ = ["PreparationAnalysis", "analyse_preparation"]
@@ -86,7 +87,34 @@ def analyse_preparation(
     >>> a = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
     >>> round(a.flash_point_K - 273.15, 1), a.lfl_fraction, round(a.saturated_vapour_fraction, 3)
     (19.2, 0.02, 0.055)
+
+    The same analysis by the same code is read from the cache directory when kept there
+    (`ignite.simulate.kept`), identical to working it out again.
     """
+    key = (tuple(components), basis, film_temperature_K, pressure, basis_temperature_K)
+    return kept(
+        "preparation",
+        key,
+        PreparationAnalysis,
+        lambda: _analyse_preparation(
+            components,
+            basis,
+            film_temperature_K,
+            pressure=pressure,
+            basis_temperature_K=basis_temperature_K,
+        ),
+    )
+
+
+def _analyse_preparation(
+    components: Sequence[tuple[str, float]],
+    basis: str,
+    film_temperature_K: float,
+    *,
+    pressure: float,
+    basis_temperature_K: float,
+) -> PreparationAnalysis:
+    """`analyse_preparation`, worked out (not read from the kept results)."""
     if basis not in ("volume", "mass"):
         raise ValueError(f"basis must be 'volume' or 'mass', got {basis!r}")
     substances, fractions, notes = _liquid(components)

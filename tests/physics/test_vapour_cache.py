@@ -100,6 +100,7 @@ def _assert_identical(found, expected) -> None:
 def test_cold_then_warm_cache_gives_identical_results(sandbox, reference, monkeypatch):
     expected, expected_outcome = reference
     _assert_identical(_analyses(), expected)  # cold: computed, then written
+    _assert_identical(simulate_prep(_analyses()[0], *PREP_CONDITIONS), expected_outcome)
     written = _files(sandbox)
     kinds = {p.name.split("-")[0] for p in written}
     assert {"substance", "vapour", "liquid", "unifac"} <= kinds
@@ -119,6 +120,11 @@ def test_cold_then_warm_cache_gives_identical_results(sandbox, reference, monkey
     # (thermo.unifac.UNIFAC itself must stay: unpickling looks the class up there)
     monkeypatch.setattr(thermo.unifac.UNIFAC, "from_subgroups", no_lookup)
     _assert_identical(_analyses(), expected)  # warm: everything from disk
+    _assert_identical(simulate_prep(_analyses()[0], *PREP_CONDITIONS), expected_outcome)
+    assert _files(sandbox) == written
+    # and worked out again (not read back whole) from the substances on disk
+    monkeypatch.setenv("IGNITE_SOLVE_AGAIN", "1")
+    _assert_identical(_analyses(), expected)
     _assert_identical(simulate_prep(_analyses()[0], *PREP_CONDITIONS), expected_outcome)
     assert _files(sandbox) == written
 
