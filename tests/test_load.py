@@ -667,6 +667,19 @@ def test_limits_never_contain_infinity_or_nan() -> None:
         assert not limits.contains(10**400)  # type: ignore[arg-type]
 
 
+def test_a_tiny_negative_is_below_a_limit_of_zero() -> None:
+    """Found by the fuzz test: "-5e-324 min" (a negative drape time, -3e-322 s) passed a
+    limit of 0 s through the float tolerance and reached the record as a negative figure."""
+    from ignite.room.bounds import Limits
+
+    at_least_zero = Limits("0 or more", low=0.0)
+    assert not at_least_zero.contains(-5e-324)
+    assert not at_least_zero.contains(-2.96e-322)
+    assert at_least_zero.contains(0.0)
+    assert at_least_zero.contains(-0.0)
+    assert Limits("from 45 degC", low=318.15).contains(45.0 + 273.15)
+
+
 NON_FINITE = [
     # a one-line edit of a room, each once a crash or a silent nonsense result
     ("test_voltage: 500 V", "test_voltage: 1.7976931348623157e308 V", "floor.test_voltage"),

@@ -49,7 +49,7 @@ class Limits:
         except OverflowError:  # an integer too large for a float
             return False
         # a hair of tolerance so that "45 degC" (318.15 K after float arithmetic) is in
-        slack = 1e-9 * max(abs(value), 1e-300)
+        slack = 1e-9 * abs(value)  # (no floor: a tiny negative below a limit of 0 is out)
         if self.low is not None:
             if self.low_open and not value > self.low:
                 return False
