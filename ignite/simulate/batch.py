@@ -82,12 +82,10 @@ GAMMA_T_SPACING = 2.0
 """Spacing [K] of the activity-coefficient table in T, as the scalar solver's nodes."""
 GAMMA_X_POINTS = 201
 """Points of the activity-coefficient table in x₁."""
-NEWTON_LINEAR = 0.01
-"""Newton step on the film temperature [K], on a measured slope, below which the fluxes are
-moved to first order and the solve ends."""
-NEWTON_TRUSTED = 1e-3
-"""Newton step [K] small enough to end the solve on the estimated slope alone (wrong by
-half, it still leaves the temperature within 1e-3 K)."""
+NEWTON_LINEAR = 0.05
+"""Newton step on the film temperature [K] below which the fluxes are moved to first order
+and the solve ends (ln P_sat changes by about 0.06 per K: the second-order term of a flux
+over 0.05 K is under 1e-5 of it)."""
 BRACKET_WIDTH = 0.005
 """Width [K] of a bracket on the film temperature that ends the solve (a flux then within
 3e-4 of itself)."""
@@ -221,10 +219,15 @@ def _gamma_block(pair: tuple[str, str], first: int, last: int) -> tuple[int, Arr
 
 def _gammas(cas: tuple[str, ...], temperature: Array, x1: Array) -> Array:
     """γ of each component, shape (..., 2): ln γ bilinear in (T, x₁) between table nodes."""
+    return _gammas_sloped(cas, temperature, x1)[0]
+
+
+def _gammas_sloped(cas: tuple[str, ...], temperature: Array, x1: Array) -> tuple[Array, Array]:
+    """(γ, d ln γ/dT) of each component, shapes (..., n): the table's slope in T."""
     import numpy as np
 
     if len(cas) == 1:
-        return np.ones((*temperature.shape, 1))
+        return np.ones((*temperature.shape, 1)), np.zeros((*temperature.shape, 1))
     pair = (cas[0], cas[1])
     position = temperature / GAMMA_T_SPACING
     low = np.floor(position).astype(int)
@@ -237,7 +240,7 @@ def _gammas(cas: tuple[str, ...], temperature: Array, x1: Array) -> Array:
     below = (1.0 - xw) * block[row, xi] + xw * block[row, xi + 1]
     above = (1.0 - xw) * block[row + 1, xi] + xw * block[row + 1, xi + 1]
     found: Array = np.exp((1.0 - weight) * below + weight * above)
-    return found
+    return found, (above - below) / GAMMA_T_SPACING
 
 
 # --- the model ----------------------------------------------------------------------------
@@ -423,14 +426,18 @@ class _Batch:
         sloped: bool,
     ) -> tuple[Array, Array, Array, Array]:
         """As `_surface`, with (when `sloped`) the surplus's and the fluxes' rates of change
-        in T: d ln P_sat/dT by Clausius–Clapeyron (ΔH_vap/RT²), the activity coefficients'
-        and the transfer coefficients' change with T left out, so the slope is close, not
-        exact (Newton's method then converges a little slower, to the same root)."""
+        in T, worked out along every step: d ln P_sat/dT by Clausius–Clapeyron
+        (ΔH_vap/RT²), d ln γ/dT from the table, the surface gas's weight and so the
+        buoyancy, natural convection and the mixed transfer coefficients (ΔH_vap's own
+        change with T, about 0.1 % per K, is left out, so the slope is close, not exact).
+        Where natural convection starts, stops or changes correlation the surplus has a
+        kink (or a small step at Ra = 1e7), which `_film_root` brackets."""
         import numpy as np
 
         t = temperature
-        gammas = _gammas(self.cas, t, x[..., 0])
+        gammas, d_ln_gammas = _gammas_sloped(self.cas, t, x[..., 0])
         psat = np.stack([_lookup(c, "psat", t) for c in self.cas], axis=-1)
+        heats = np.stack([_lookup(c, "dh", t) for c in self.cas], axis=-1)
         partial = np.where(self.volatile, x * gammas * psat, 0.0)
         fractions = partial / self.pressure
         surface_mass = (1.0 - fractions.sum(-1)) * AIR_MOLAR_MASS + fractions @ self.molar_mass
@@ -440,54 +447,77 @@ class _Batch:
         if fastest:
             surface_mass = np.full_like(t, AIR_MOLAR_MASS)
             far_mass = np.full_like(t, AIR_MOLAR_MASS)
-        buoyancy = 1.0 - surface_mass * self.air[:, None] / (far_mass * t)
+        air = self.air[:, None]
+        buoyancy = 1.0 - surface_mass * air / (far_mass * t)
         root_speed = np.sqrt(np.where(covered, self.under_speed, self.speed))[:, None]
         lift = np.maximum(buoyancy, 0.0)
+        if sloped:
+            # d ln (x γ P_sat)/dT, and what follows from it: the surface gas's weight,
+            # the buoyancy, and the relative change of the lift (0 where there is none)
+            d_ln_partial = heats / (GAS_CONSTANT * t * t)[..., None] + d_ln_gammas
+            d_surface_mass = (fractions * d_ln_partial) @ (self.molar_mass - AIR_MOLAR_MASS)
+            d_buoyancy = air / far_mass * (surface_mass / t**2 - d_surface_mass / t)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                d_ln_lift = np.where(buoyancy > 0.0, d_buoyancy / buoyancy, 0.0)
         fluxes = np.zeros_like(x)
         latent = np.zeros_like(t)
         d_fluxes = np.zeros_like(x) if sloped else fluxes
         transfer = np.zeros_like(x)
         d_latent = np.zeros_like(t)
         h_sum = np.zeros_like(t)
+        d_h_sum = np.zeros_like(t)
         count = 0
-        for i, cas in enumerate(self.cas):
+        for i in range(len(self.cas)):
             if not self.volatile[i]:
                 continue
             k_forced = self.forced[..., i] * root_speed
             rayleigh = self.rayleigh_per_buoyancy[..., i] * lift
+            laminar = rayleigh <= 1e7
             sh_natural = np.where(
-                rayleigh <= 1e7, 0.54 * np.sqrt(np.sqrt(rayleigh)), 0.15 * np.cbrt(rayleigh)
+                laminar, 0.54 * np.sqrt(np.sqrt(rayleigh)), 0.15 * np.cbrt(rayleigh)
             )
             k_natural = sh_natural * self.natural_scale[..., i]
             k_mixed = np.cbrt(k_forced**3 + k_natural**3)
-            k = np.maximum(k_mixed, self.floor[..., i])
-            h_sum = h_sum + k * self.heat_factor[..., i]
+            above_floor = k_mixed > self.floor[..., i]
+            k_open = np.where(above_floor, k_mixed, self.floor[..., i])
+            h_sum = h_sum + k_open * self.heat_factor[..., i]
             count += 1
-            k = 1.0 / (1.0 / k + self.layer_resistance[..., i])
+            k = 1.0 / (1.0 / k_open + self.layer_resistance[..., i])
             transfer[..., i] = k
             at_surface = partial[..., i] / (GAS_CONSTANT * t)
-            flux = k * (at_surface - far[:, None, i])
+            driving = at_surface - far[:, None, i]
+            flux = k * driving
             fluxes[..., i] = flux
-            heat = _lookup(cas, "dh", t)
-            latent = latent + flux * heat
+            latent = latent + flux * heats[..., i]
             if sloped:
-                d_flux = k * at_surface * (heat / (GAS_CONSTANT * t * t) - 1.0 / t)
+                d_k_natural = k_natural * d_ln_lift * np.where(laminar, 0.25, 1.0 / 3.0)
+                with np.errstate(divide="ignore", invalid="ignore"):
+                    d_k_mixed = np.where(
+                        k_mixed > 0.0, k_natural**2 * d_k_natural / k_mixed**2, 0.0
+                    )
+                d_k_open = np.where(above_floor, d_k_mixed, 0.0)
+                d_h_sum = d_h_sum + d_k_open * self.heat_factor[..., i]
+                d_k = d_k_open * (k / k_open) ** 2
+                d_at_surface = at_surface * (d_ln_partial[..., i] - 1.0 / t)
+                d_flux = d_k * driving + k * d_at_surface
                 d_fluxes[..., i] = d_flux
-                d_latent = d_latent + d_flux * heat
+                d_latent = d_latent + d_flux * heats[..., i]
         self.transfer = transfer
-        h = h_sum / max(count, 1)
-        h = np.where(
-            (self.layer > 0.0) & (h > 0.0), 1.0 / (1.0 / h + self.layer / self.k_air[:, None]), h
-        )
-        air = self.air[:, None]
+        h_open = h_sum / max(count, 1)
+        layered = (self.layer > 0.0) & (h_open > 0.0)
+        with np.errstate(divide="ignore"):
+            h = np.where(layered, 1.0 / (1.0 / h_open + self.layer / self.k_air[:, None]), h_open)
         h_r = self.emissivity * STEFAN_BOLTZMANN * (t + air) * (t**2 + air**2)
         surplus = (
             self.conductance[:, None] * (self.skin[:, None] - t) + (h + h_r) * (air - t) - latent
         )
         if not sloped:
             return surplus, fluxes, surplus, fluxes
+        d_h_open = d_h_sum / max(count, 1)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            d_h = np.where(layered, d_h_open * (h / h_open) ** 2, d_h_open)
         d_h_r = self.emissivity * STEFAN_BOLTZMANN * (3.0 * t**2 + 2.0 * air * t + air**2)
-        slope = -self.conductance[:, None] - h - h_r + d_h_r * (air - t) - d_latent
+        slope = -self.conductance[:, None] - h - h_r + (d_h + d_h_r) * (air - t) - d_latent
         return surplus, fluxes, slope, d_fluxes
 
     def fluxes(self, moles: Array, far: Array, covered: Array, fastest: bool) -> Array:
@@ -509,63 +539,20 @@ class _Batch:
         """Fluxes at the film temperature: the root of the heat surplus, found from the last
         temperature by Newton's method kept inside a bracket.
 
-        The first step uses the surplus's estimated slope (`_surface_sloped`), the later
-        ones the secant through the last two points, which sees the transfer coefficients'
-        change with T (strong in still air). Each evaluation narrows a bracket on the root;
-        a step that would leave it halves it instead, which settles the samples whose
-        surplus has a kink near the root (natural convection starting or stopping), where
-        Newton's steps swing across. A sample is done:
-        - once its step, inside the bracket, is under NEWTON_LINEAR on a secant
-          (NEWTON_TRUSTED on the estimated slope); its fluxes are then moved to first order
-          by the step. Their slope leaves out the transfer coefficients' change with T,
-          which is why the step must be small: on the pooled case of the sample rooms
-          0.01 K keeps the drying time within 0.2 % of the scalar solver's, 0.05 K did not;
+        The step uses the surplus's slope (`_surface_sloped`, within 1 % of a numerical
+        derivative on the sample cases). Each evaluation narrows a bracket on the root; a
+        step that would leave it halves it instead, which settles the samples whose
+        surplus has a kink or a step near the root (natural convection starting, stopping
+        or changing correlation), where Newton's steps swing across. A sample is done:
+        - once its step, inside the bracket, is under NEWTON_LINEAR; its fluxes are then
+          moved to first order by the step along their own slope (the second-order term
+          is under 1e-4 of a flux);
         - or once its bracket is narrower than BRACKET_WIDTH; its fluxes are then those at
           the end last evaluated.
         Only `wet` patches count: a dry patch's temperature moves no flux."""
-        import numpy as np
 
-        t = self.temperature
-        low = np.full_like(t, -np.inf)
-        high = np.full_like(t, np.inf)
-        done = ~wet
-        found = np.zeros_like(x)
-        step = np.zeros_like(t)
-        last_t = last_surplus = None
-        measured = np.zeros_like(t, dtype=bool)
-        for _ in range(ROOT_ITERATIONS):
-            surplus, flux, slope, d_flux = self._surface_sloped(t, x, far, covered, False, True)
-            low = np.where(surplus > 0.0, np.maximum(low, t), low)
-            high = np.where(surplus > 0.0, high, np.minimum(high, t))
-            if last_t is not None and last_surplus is not None:
-                moved = t - last_t
-                with np.errstate(divide="ignore", invalid="ignore"):
-                    secant = (surplus - last_surplus) / moved
-                measured = (np.abs(moved) > 1e-6) & (secant < 0.0)
-                slope = np.where(measured, secant, slope)
-            last_t, last_surplus = t, surplus
-            with np.errstate(divide="ignore", invalid="ignore"):
-                step = np.where(slope < 0.0, -surplus / slope, np.sign(surplus) * NEWTON_STEP)
-            # settled: a small step on a slope measured between two points, landing inside
-            # the bracket (a step on the estimated slope alone can be small and wrong)
-            candidate = t + step
-            small = np.where(measured, NEWTON_LINEAR, NEWTON_TRUSTED)
-            settled = ~done & (np.abs(step) < small) & (candidate >= low) & (candidate <= high)
-            narrow = ~done & ~settled & (high - low < BRACKET_WIDTH)
-            found = np.where(settled[..., None], flux + d_flux * step[..., None], found)
-            found = np.where(narrow[..., None], flux, found)
-            step = np.where(settled, step, np.where(narrow, 0.0, step))
-            t_next = t + np.where(settled, step, 0.0)
-            done = done | settled | narrow
-            if done.all():
-                self.temperature = t_next
-                return found
-            candidate = t + np.clip(step, -NEWTON_STEP, NEWTON_STEP)
-            leaves = (candidate <= low) | (candidate >= high)
-            with np.errstate(invalid="ignore"):
-                halved = np.where(np.isfinite(low) & np.isfinite(high), 0.5 * (low + high), t)
-            t = np.where(done, t_next, np.where(leaves, halved, candidate))
-        raise RuntimeError("the film temperature did not settle")  # a bracket halves each time
+        found, self.temperature = _settle(self, self.temperature, x, far, covered, wet)
+        return found
 
     def rates(self, moles: Array, pocket: Array, covered: Array, fastest: bool) -> _Rates:
         """d moles/dt (S,P,n), and the film's source into the pocket [mol/s] and the
@@ -601,6 +588,61 @@ class _Batch:
             pocket + dt[:, None] * source / self.pocket_volume[:, None],
         )
         return np.where(covered[:, None], moved, pocket)
+
+
+def _settle(
+    model: _Batch, t: Array, x: Array, far: Array, covered: Array, wet: Mask
+) -> tuple[Array, Array]:
+    """(fluxes, temperatures) of `model._film_root`, from the temperatures `t`.
+
+    After the first step, the few samples not yet settled (those whose root sits at a kink
+    take several steps) go on alone, on `model.subset` of them, so their extra steps do
+    not evaluate every sample again."""
+    import numpy as np
+
+    low = np.full_like(t, -np.inf)
+    high = np.full_like(t, np.inf)
+    done = ~wet
+    found = np.zeros_like(x)
+    for iteration in range(ROOT_ITERATIONS):
+        surplus, flux, slope, d_flux = model._surface_sloped(t, x, far, covered, False, True)
+        low = np.where(surplus > 0.0, np.maximum(low, t), low)
+        high = np.where(surplus > 0.0, high, np.minimum(high, t))
+        with np.errstate(divide="ignore", invalid="ignore"):
+            step = np.where(slope < 0.0, -surplus / slope, np.sign(surplus) * NEWTON_STEP)
+        candidate = t + step
+        settled = (
+            ~done
+            & (slope < 0.0)
+            & (np.abs(step) < NEWTON_LINEAR)
+            & (candidate >= low)
+            & (candidate <= high)
+        )
+        narrow = ~done & ~settled & (high - low < BRACKET_WIDTH)
+        found = np.where(settled[..., None], flux + d_flux * step[..., None], found)
+        found = np.where(narrow[..., None], flux, found)
+        step = np.where(settled, step, np.where(narrow, 0.0, step))
+        t_next = t + np.where(settled, step, 0.0)
+        done = done | settled | narrow
+        if done.all():
+            return found, t_next
+        candidate = t + np.clip(step, -NEWTON_STEP, NEWTON_STEP)
+        leaves = (candidate <= low) | (candidate >= high)
+        with np.errstate(invalid="ignore"):
+            halved = np.where(np.isfinite(low) & np.isfinite(high), 0.5 * (low + high), t)
+        t = np.where(done, t_next, np.where(leaves, halved, candidate))
+        rows: Mask = np.asarray(~done.all(axis=1))  # samples with a patch still to settle
+        if iteration == 0 and 2 * int(rows.sum()) <= rows.size:
+            part = model.subset(rows)
+            rest, t_rest = _settle(part, t[rows], x[rows], far[rows], covered[rows], ~done[rows])
+            open_rows = ~done[rows]
+            found[rows] = np.where(open_rows[..., None], rest, found[rows])
+            t[rows] = np.where(open_rows, t_rest, t[rows])
+            transfer = model.transfer.copy()
+            transfer[rows] = part.transfer
+            model.transfer = transfer
+            return found, t
+    raise RuntimeError("the film temperature did not settle")  # a bracket halves each time
 
 
 def _step_size(model: _Batch, moles: Array, change: Array, cap: Array) -> Array:
@@ -880,8 +922,9 @@ def _dry_batch(
     )
 
 
-def _first_time(times: Array, left: Array, level: float) -> Array:
-    """Each sample's first time on the grid (end of the step) at which `left` ≤ level."""
+def _first_time(times: Array, left: Array, level: float | Array) -> Array:
+    """Each sample's first time on the grid (end of the step) at which `left` ≤ level (one
+    level, or each sample's own)."""
     import numpy as np
 
     below = left <= level
