@@ -598,7 +598,7 @@ def activity_model_at(
     direct = activity_model(cas)
     if len(cas) != 2:
         return direct
-    return _tabulated_binary(direct, temperature)
+    return _tabulated_binary(direct, temperature, (cas, ACTIVITY_MODEL))
 
 
 BINARY_GRID_POINTS = 801
@@ -606,21 +606,36 @@ BINARY_GRID_POINTS = 801
 
 
 def _tabulated_binary(
-    gammas: Callable[[float, Sequence[float]], tuple[float, ...]], temperature: float
+    gammas: Callable[[float, Sequence[float]], tuple[float, ...]],
+    temperature: float,
+    key: tuple[object, ...] | None = None,
 ) -> Callable[[float, Sequence[float]], tuple[float, ...]]:
     """γ(T, x) of a binary from ln γ tabulated at one temperature, linear in x₁.
 
     The film and pocket integrations call γ thousands of times at one film
     temperature; UNIFAC's ln γ is smooth in composition, so a grid of 801 points
     reproduces it to better than 0.1 % (tests/physics/test_vapour.py checks this)
-    at a small fraction of the cost.
+    at a small fraction of the cost. With a `key` naming the binary and the model, the
+    table is kept in the cache directory (`_cache`): building one takes 801 UNIFAC calls.
     """
     import numpy as np
 
     grid = np.linspace(0.0, 1.0, BINARY_GRID_POINTS)
-    inner = np.clip(grid, 1e-12, 1.0 - 1e-12)
-    values = np.array([gammas(temperature, [x1, 1.0 - x1]) for x1 in inner])
-    ln1, ln2 = np.log(values[:, 0]), np.log(values[:, 1])
+    entry = None if key is None else (*key, temperature, BINARY_GRID_POINTS)
+    kept = None
+    if entry is not None:
+        kept = _cache.load(
+            "binary-gammas",
+            entry,
+            lambda found: isinstance(found, np.ndarray) and found.shape == (2, len(grid)),
+        )
+    if kept is None:
+        inner = np.clip(grid, 1e-12, 1.0 - 1e-12)
+        values = np.array([gammas(temperature, [x1, 1.0 - x1]) for x1 in inner])
+        kept = np.log(values).T.copy()
+        if entry is not None:
+            _cache.store("binary-gammas", entry, kept)
+    ln1, ln2 = kept[0], kept[1]
 
     def tabulated(at: float, x: Sequence[float]) -> tuple[float, ...]:
         if at != temperature:

@@ -5,8 +5,9 @@ film's heat balance, the well-mixed drape pocket) and the timeline that of
 `ignite.simulate.drying` (open air until draping; the slow film for drying, the fastest
 film for the pocket; the safe draping time as the earliest draping that keeps the pocket's
 peak within its margin). What differs is how they are solved: every sample advances
-together, each with its own step (at most 4 % of the flammable liquid, and of what is
-left of any component, per step; at most 60 s), the film by Heun's method, the pocket by
+together, each with its own step (at most 4 % of the flammable liquid, and half of what is
+left of any component, per step; at most 60 s in open air and 300 s under the drapes), the
+film by Heun's method, the pocket by
 solving its linear equation exactly over the step (stable however short its time
 constant); the film temperature by Newton's method kept inside a bracket on the heat
 balance; the safe draping time by regula falsi (Illinois) on the draping time, stepping
@@ -73,8 +74,12 @@ STEP_STABLE = 0.5
 GONE_SHARE = 1e-6
 """Below this share of what was applied, a component (or the flammable liquid) no longer
 limits the step: it is gone for every figure read (the dry fraction is 1e-2, gone 1e-4)."""
-STEP_MAX = 60.0
-"""Longest step [s]."""
+STEP_MAX = 300.0
+"""Longest step [s] under the drapes (the pocket is stepped exactly, so this is for the
+film's accuracy alone)."""
+OPEN_STEP_MAX = 60.0
+"""Longest step [s] in open air: the safe draping search reads the film between these steps
+(300 s here moved the pooled sample case's safe draping time 0.4 % late)."""
 STEP_MIN = 1e-3
 """Shortest step [s]."""
 T_GRID = 0.1
@@ -741,7 +746,7 @@ def _open_air(model: _Batch, dry_fraction: float) -> tuple[_History, Array, Arra
         active = np.isinf(gone) & (t < HORIZON)
         if not active.any():
             break
-        cap = np.where(active, HORIZON - t, 0.0)
+        cap = np.where(active, np.minimum(HORIZON - t, OPEN_STEP_MAX), 0.0)
         moles, pocket, dt = _heun(model, moles, pocket, covered, False, cap)
         t = t + dt
         left = model.left(moles)
