@@ -686,8 +686,26 @@ def _heun(
     start: _Rates | None = None,
 ) -> tuple[Array, Array, Array]:
     """One step of every sample: (moles, pocket, the step taken [s]); `cap` 0 holds a
-    sample. `start`: the rates at the present state, when already computed."""
+    sample. `start`: the rates at the present state, when already computed. Once half the
+    samples or more are held, the others step alone (`_Batch.subset`)."""
     import numpy as np
+
+    moving = cap > 0.0
+    count = int(moving.sum())
+    if count > 0 and 2 * count <= moving.size:
+        part = model.subset(moving)
+        given = None if start is None else (start[0][moving], start[1][moving], start[2][moving])
+        stepped = _heun(
+            part, moles[moving], pocket[moving], covered[moving], fastest, cap[moving], given
+        )
+        moles, pocket = moles.copy(), pocket.copy()
+        moles[moving], pocket[moving] = stepped[0], stepped[1]
+        dt = np.zeros_like(cap)
+        dt[moving] = stepped[2]
+        temperature, transfer = model.temperature.copy(), model.transfer.copy()
+        temperature[moving], transfer[moving] = part.temperature, part.transfer
+        model.temperature, model.transfer = temperature, transfer
+        return moles, pocket, dt
 
     d_moles, source, conductance = start or model.rates(moles, pocket, covered, fastest)
     dt = np.where(cap > 0.0, _step_size(model, moles, d_moles, cap), 0.0)
