@@ -1,7 +1,7 @@
 """Ranges in, probabilities out: the room's figures over the spread of its inputs.
 
 Every range of the room file (`Room.ranges`) and of the rules (`Bound.spreads`) is one
-dimension of a Latin hypercube (`scipy.stats.qmc.LatinHypercube`, seeded from the SHA-256
+dimension of a Latin hypercube (`latin_hypercube`, scipy's algorithm, seeded from the SHA-256
 of the room file and of the rules, so the same inputs always give the same bytes). Each
 sample is the room with those inputs set to the sampled values, computed by the very
 functions the nominal run uses (`site_oxygen`, `lowest_mie`, `person_charge`, the drying
@@ -59,7 +59,8 @@ if TYPE_CHECKING:
     Array = npt.NDArray[np.float64]
 
 METHOD = (
-    "Latin hypercube sampling (scipy.stats.qmc), seeded from the room file's and the rules' SHA-256"
+    "Latin hypercube sampling (the algorithm of scipy.stats.qmc), seeded from the room file's "
+    "and the rules' SHA-256"
 )
 SENSITIVITY = "Spearman rank correlation of each input with each figure over the samples"
 
@@ -145,7 +146,6 @@ def spread_results(room: Room, bound: Bound, results: Results, sampling: Samplin
     if not sampling.active(bool(room.ranges)) or bound.uncertainty is None:
         return results
     import numpy as np
-    from scipy.stats import qmc
 
     inputs = _inputs(room, bound)
     count = sampling.samples or DEFAULT_SAMPLES
@@ -155,10 +155,7 @@ def spread_results(room: Room, bound: Bound, results: Results, sampling: Samplin
         if sampling.confidence is not None
         else bound.uncertainty.confidence.value
     )
-    if inputs:
-        unit = qmc.LatinHypercube(d=len(inputs), seed=np.random.default_rng(seed)).random(count)
-    else:
-        unit = np.full((count, 0), 0.5)
+    unit = latin_hypercube(len(inputs), count, seed) if inputs else np.full((count, 0), 0.5)
     values = (
         np.column_stack([spec.distribution.values(unit[:, k]) for k, spec in enumerate(inputs)])
         if inputs
@@ -639,21 +636,57 @@ def _at_least(values: Array, confidence: float) -> float:
     return float(np.quantile(values, confidence, method="higher"))
 
 
+def latin_hypercube(dimensions: int, count: int, seed: int) -> Array:
+    """`count` points of a scrambled Latin hypercube in [0, 1)^dimensions: the algorithm of
+    `scipy.stats.qmc.LatinHypercube` (strength 1, no optimisation) drawing from
+    `numpy.random.default_rng(seed)` in the same order, so the same points to the last bit
+    (tests/simulate/test_sampling_tools.py checks this), without importing scipy.stats,
+    which takes about 0.8 s."""
+    import numpy as np
+
+    # scipy draws from a child of the generator it is given (spawned from its seed sequence)
+    parent = np.random.default_rng(seed).bit_generator
+    sequence = parent.seed_seq
+    assert isinstance(sequence, np.random.SeedSequence)
+    rng = np.random.Generator(type(parent)(sequence.spawn(1)[0]))
+    jitter = rng.uniform(size=(count, dimensions))
+    strata = np.tile(np.arange(1, count + 1), (dimensions, 1))
+    for row in range(dimensions):
+        rng.shuffle(strata[row, :])
+    found: Array = (strata.T - jitter) / count
+    return found
+
+
+def ranks(values: Array) -> Array:
+    """Ranks 1..n of `values`, ties given their average rank: `scipy.stats.rankdata`'s
+    default (tests/simulate/test_sampling_tools.py checks this), without scipy.stats."""
+    import numpy as np
+
+    order = np.argsort(values, kind="mergesort")
+    ordered = values[order]
+    first = np.concatenate([[True], ordered[1:] != ordered[:-1]])
+    starts = np.flatnonzero(first)
+    counts = np.diff(np.concatenate([starts, [len(values)]]))
+    average = starts + (counts + 1) / 2.0
+    found: Array = np.empty(len(values))
+    found[order] = average[np.cumsum(first) - 1]
+    return found
+
+
 def _drivers(figure: Array, values: Array, inputs: Sequence[_Input]) -> tuple[Driver, ...]:
     """Inputs ranked by |Spearman ρ| with the figure; none when the figure does not vary."""
     import numpy as np
-    from scipy.stats import rankdata
 
     finite = ~np.isnan(figure)
     if finite.sum() < 3 or np.ptp(figure[finite]) == 0.0:
         return ()
-    ranked_figure = rankdata(figure[finite])
+    ranked_figure = ranks(figure[finite])
     found = []
     for k, spec in enumerate(inputs):
         column = values[finite, k]
         if np.ptp(column) == 0.0:
             continue
-        rho = float(np.corrcoef(rankdata(column), ranked_figure)[0, 1])
+        rho = float(np.corrcoef(ranks(column), ranked_figure)[0, 1])
         if math.isnan(rho):
             continue
         if spec is _IDLE:
