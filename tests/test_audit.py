@@ -488,7 +488,13 @@ def test_a_signal_while_the_files_move_is_held_until_all_are_in_place(
 
     monkeypatch.setattr(ignite.audit.io, "_place", place)
     out = tmp_path / "out"
-    result = audit(site, "-o", out, "--jobs", "1")
+    # Python's own Ctrl-C handler, as in a terminal: a process started as a background job
+    # inherits SIGINT ignored, and the audit rightly keeps that (the signal is then lost)
+    inherited = signal.signal(signal.SIGINT, signal.default_int_handler)
+    try:
+        result = audit(site, "-o", out, "--jobs", "1")
+    finally:
+        signal.signal(signal.SIGINT, inherited)
     assert result.exit_code == 130
     assert "interrupted after its output was in place" in result.stderr
     assert "3 worksheet(s), complete" in result.stderr
