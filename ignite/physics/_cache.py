@@ -36,7 +36,7 @@ from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
-__all__ = ["CACHE_FORMAT", "Versions", "cache_directory", "load", "store"]
+__all__ = ["CACHE_FORMAT", "Versions", "cache_directory", "load", "prune", "store"]
 
 CACHE_FORMAT = 1
 """Raise when the layout of an entry, or what an entry of some kind holds, changes."""
@@ -125,9 +125,12 @@ def load(
         return None
     try:
         header = _header(kind, key, versions)
-        with open(_path(directory, header), "rb") as file:
+        path = _path(directory, header)
+        with open(path, "rb") as file:
             found, value = pickle.load(file)
         if found == header and accept(value):
+            with contextlib.suppress(OSError):
+                os.utime(path)  # last used now: `prune` keeps the recently used
             return value
     except Exception:
         pass  # unreadable, corrupt or foreign: a miss, rewritten by the caller
@@ -156,3 +159,27 @@ def store(kind: str, key: Any, value: Any, versions: Versions | None = None) -> 
         if temporary is not None:
             with contextlib.suppress(OSError):
                 os.unlink(temporary)
+
+
+def prune(kinds: tuple[str, ...], budget: int) -> None:
+    """Remove the entries of `kinds` least recently used until they hold `budget` bytes or
+    less (an entry read or written counts as used); any failure leaves the rest alone."""
+    directory = cache_directory()
+    if directory is None:
+        return
+    try:
+        entries = []
+        paths = {path for kind in kinds for path in directory.glob(f"{kind}-*.pickle")}
+        for path in paths:  # (a kind may be the prefix of another: each file once)
+            with contextlib.suppress(OSError):
+                status = path.stat()
+                entries.append((status.st_mtime, status.st_size, path))
+        total = sum(size for _, size, _ in entries)
+        for _, size, path in sorted(entries, key=lambda entry: entry[0]):
+            if total <= budget:
+                break
+            with contextlib.suppress(OSError):
+                path.unlink()
+                total -= size
+    except Exception:
+        return  # the cache is a shortcut: a failure to prune it is no error

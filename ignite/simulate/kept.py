@@ -11,6 +11,7 @@ user's cache directory (`ignite.physics._cache`, the same rules: `IGNITE_NO_CACH
 turns it off, deleting the directory is always safe, a failure to read or write is
 silent and the solve simply runs). `IGNITE_SOLVE_AGAIN=1` solves every time but still
 keeps the results (to time the solver, or to check a kept result against a new solve).
+The kept solves hold at most BUDGET bytes: past it, the least recently used are removed.
 
 An entry is found only when its key repeats exactly (every input, as `repr` writes it,
 to the last digit of every float) and it was written by the same code: the versions
@@ -34,6 +35,11 @@ from ignite.physics import _cache
 __all__ = ["kept", "solver_versions"]
 
 T = TypeVar("T")
+
+KINDS = ("drying", "drying-batch", "preparation")
+"""The kinds of entry kept here (a solve of 1000 samples takes about 20 MB)."""
+BUDGET = 256 * 2**20
+"""Bytes the kept solves may hold; past it the least recently used go."""
 
 
 @lru_cache(maxsize=1)
@@ -80,4 +86,5 @@ def kept(kind: str, key: Any, kind_of: type[T], solve: Callable[[], T]) -> T:
         return result
     result = solve()
     _cache.store(kind, key, result, solver_versions())
+    _cache.prune(KINDS, BUDGET)
     return result

@@ -7,27 +7,12 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
+from conftest import PREP_ASSUMPTIONS
 
-from ignite.rules.bound import PrepAssumptions
 from ignite.simulate import drying
 from ignite.simulate.preparation import analyse_preparation
 
-ASSUMPTIONS = PrepAssumptions(
-    dry_fraction=0.01,
-    pocket_margin=0.25,
-    under_drape_air_speed=0.0,
-    hair_still_layer=0.005,
-    hair_exposed_fraction=0.5,
-    pooling_volume_fraction=0.5,
-    pooling_area_fraction=0.1,
-    diffusivity_reference_temperature=298.15,
-    diffusivities={},
-    skin_temperature_default=305.15,
-    label_minimum_hairless=None,
-    label_maximum_hair=None,
-    tissue_conductance=12.6,
-    film_emissivity=0.95,
-)
+ASSUMPTIONS = PREP_ASSUMPTIONS
 
 
 def _solve(volume: float = 5e-6) -> drying.PrepOutcome:
@@ -111,3 +96,26 @@ def test_solve_again_solves_and_still_keeps(
     monkeypatch.delenv("IGNITE_SOLVE_AGAIN")
     _solve()
     assert calls == [1]
+
+
+def test_the_least_recently_used_go_past_the_budget(
+    own_cache: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    import os
+
+    from ignite.simulate import kept
+
+    for volume in (4e-6, 5e-6, 6e-6):
+        _solve(volume)
+    entries = sorted(own_cache.glob("drying-*.pickle"), key=lambda p: p.stat().st_mtime)
+    assert len(entries) == 3
+    for age, entry in enumerate(entries):  # oldest first, a minute apart
+        os.utime(entry, (1_000_000 + 60 * age, 1_000_000 + 60 * age))
+    _solve(4e-6)  # read back: now the most recently used
+    size = entries[0].stat().st_size
+    monkeypatch.setattr(kept, "BUDGET", 2 * size + size // 2)
+    _solve(7e-6)  # a new solve prunes to the budget: the two least recently used go
+    left = {p.name for p in own_cache.glob("drying-*.pickle")}
+    assert entries[0].name in left  # read back just before
+    assert entries[1].name not in left and entries[2].name not in left
+    assert len(left) == 2
