@@ -34,6 +34,7 @@ the `thermo` objects built for it are kept between runs by `ignite.physics._cach
 
 from __future__ import annotations
 
+import bisect
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
@@ -637,12 +638,25 @@ def _tabulated_binary(
             _cache.store("binary-gammas", entry, kept)
     ln1, ln2 = kept[0], kept[1]
 
+    # plain floats: the film solver calls this some 10^5 times a run, and numpy's per-call
+    # overhead on a scalar is most of the cost; np.interp's own formula, in the same order
+    nodes, first, second = grid.tolist(), ln1.tolist(), ln2.tolist()
+    last = len(nodes) - 1
+
     def tabulated(at: float, x: Sequence[float]) -> tuple[float, ...]:
         if at != temperature:
             return gammas(at, x)
         total = x[0] + x[1]
         x1 = min(max(x[0] / total, 0.0), 1.0) if total > 0 else 0.5
-        return (float(np.exp(np.interp(x1, grid, ln1))), float(np.exp(np.interp(x1, grid, ln2))))
+        if x1 >= nodes[last]:
+            return (math.exp(first[last]), math.exp(second[last]))
+        j = bisect.bisect_right(nodes, x1) - 1
+        span = nodes[j + 1] - nodes[j]
+        offset = x1 - nodes[j]
+        return (
+            math.exp((first[j + 1] - first[j]) / span * offset + first[j]),
+            math.exp((second[j + 1] - second[j]) / span * offset + second[j]),
+        )
 
     return tabulated
 
