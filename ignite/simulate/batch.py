@@ -910,11 +910,12 @@ def _dry_batch(
         searching = searching & ((high - low) > np.maximum(0.5, SAFE_TOLERANCE * high))
         if not searching.any():
             break
+        # (samples not searching may hold an infinite end: their guess is not used)
         with np.errstate(divide="ignore", invalid="ignore"):
             guess = low + f_low * (high - low) / (f_low - f_high)
-        # a guess within a twentieth of the bracket of an end moves to that twentieth,
-        # so the bracket narrows from both sides even where the peak bends sharply
-        guess = np.clip(guess, low + 0.05 * (high - low), high - 0.05 * (high - low))
+            # a guess within a twentieth of the bracket of an end moves to that twentieth,
+            # so the bracket narrows from both sides even where the peak bends sharply
+            guess = np.clip(guess, low + 0.05 * (high - low), high - 0.05 * (high - low))
         middle = np.where(searching, guess, 0.0)
         film = history.at(middle[searching], searching)
         found = np.zeros_like(middle)

@@ -163,3 +163,56 @@ def test_batch_module_is_documented() -> None:
 
     assert batch.__doc__ and "errs" in batch.__doc__
     assert Path(batch.__file__).name == "batch.py"
+
+
+@pytest.mark.parametrize("hair", [False, True])
+@pytest.mark.parametrize("pooling", [False, True])
+def test_wide_inputs_give_finite_figures_without_warnings(hair: bool, pooling: bool) -> None:
+    """Samples far apart (1-50 mL, 10-1000 cm², still to brisk air, tiny fast-flushed to
+    large still pockets) in one batch: no error, no numpy warning, no NaN or negative
+    figure (a time may be infinite: not dry within the horizon)."""
+    import warnings
+
+    from conftest import PREP_ASSUMPTIONS
+
+    from ignite.simulate.preparation import analyse_preparation
+
+    rng = np.random.default_rng(5)
+    n = 40
+
+    def spread(low: float, high: float) -> np.ndarray:
+        return rng.uniform(low, high, n)
+
+    given = BatchInputs(
+        spread(1e-6, 50e-6),
+        spread(0.001, 0.1),
+        spread(301.0, 309.0),
+        spread(288.0, 300.0),
+        spread(0.1, 0.8),
+        spread(0.0, 0.6),
+        spread(0.0, 900.0),
+        spread(0.0, 1800.0),
+        spread(0.002, 0.1),
+        spread(0.0, 100e-3 / 60),
+        spread(0.001, 0.01),
+        spread(0.2, 0.8),
+        spread(0.1, 0.9),
+        spread(0.02, 0.3),
+        spread(5.0, 30.0),
+        hair,
+        pooling,
+    )
+    analysis = analyse_preparation([("ethanol", 0.7), ("water", 0.3)], "volume", 305.15)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        out = dry_batch(analysis, given, PREP_ASSUMPTIONS)
+    for figure in (
+        out.drying_time_s,
+        out.left_at_activation,
+        out.pocket_peak,
+        out.safe_draping_after_s,
+    ):
+        assert not np.isnan(figure).any()
+        assert (figure >= 0.0).all()
+    assert np.isfinite(out.pocket_peak).all()
+    assert ((out.left_at_activation >= 0.0) & (out.left_at_activation <= 1.0)).all()
