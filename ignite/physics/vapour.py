@@ -623,20 +623,20 @@ def _tabulated_binary(
 
     grid = np.linspace(0.0, 1.0, BINARY_GRID_POINTS)
     entry = None if key is None else (*key, temperature, BINARY_GRID_POINTS)
-    kept = None
+    table = None
     if entry is not None:
-        kept = _cache.load(
+        table = _cache.load(
             "binary-gammas",
             entry,
             lambda found: isinstance(found, np.ndarray) and found.shape == (2, len(grid)),
         )
-    if kept is None:
+    if table is None:
         inner = np.clip(grid, 1e-12, 1.0 - 1e-12)
         values = np.array([gammas(temperature, [x1, 1.0 - x1]) for x1 in inner])
-        kept = np.log(values).T.copy()
+        table = np.log(values).T.copy()
         if entry is not None:
-            _cache.store("binary-gammas", entry, kept)
-    ln1, ln2 = kept[0], kept[1]
+            _cache.store("binary-gammas", entry, table)
+    ln1, ln2 = table[0], table[1]
 
     # plain floats: the film solver calls this some 10^5 times a run, and numpy's per-call
     # overhead on a scalar is most of the cost; np.interp's own formula, in the same order

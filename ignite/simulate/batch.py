@@ -7,9 +7,8 @@ film for the pocket; the safe draping time as the earliest draping that keeps th
 peak within its margin). What differs is how they are solved: every sample advances
 together, each with its own step (at most 4 % of the flammable liquid, and half of what is
 left of any component, per step; at most 60 s in open air and 300 s under the drapes), the
-film by Heun's method, the pocket by
-solving its linear equation exactly over the step (stable however short its time
-constant); the film temperature by Newton's method kept inside a bracket on the heat
+film by Heun's method, the pocket by solving its linear equation exactly over the step
+(stable however short its time constant); the film temperature by Newton's method kept inside a bracket on the heat
 balance; the safe draping time by regula falsi (Illinois) on the draping time, stepping
 only the samples still searching; vapour pressures and enthalpies of vaporisation from
 tables in T (0.1 K), a binary's ln γ from a table in T (2 K, as the scalar solver) and x₁
@@ -68,7 +67,7 @@ STEP_CHANGE = 0.04
 """Largest share of the flammable liquid one step may remove (2 % moved no figure of the
 sample cases by more than 0.1 % against 4 %, at a third more steps)."""
 SAFE_TOLERANCE = 0.01
-"""Relative width at which the bisection for the safe draping time stops (its upper end is kept)."""
+"""Relative width at which the search for the safe draping time stops (its upper end is kept)."""
 STEP_STABLE = 0.5
 """Largest share of what is left of any one component one step may remove."""
 GONE_SHARE = 1e-6
@@ -358,6 +357,14 @@ class _Batch:
         part.samples = int(lanes.sum())
         return part
 
+    def take_back(self, part: _Batch, lanes: Mask, names: tuple[str, ...]) -> None:
+        """The state `names` that `part` (`subset(lanes)`) moved on, copied back into these
+        samples (a copy: the old arrays may still be read by a caller)."""
+        for name in names:
+            merged = getattr(self, name).copy()
+            merged[lanes] = getattr(part, name)
+            setattr(self, name, merged)
+
     def _transfer_constants(self) -> None:
         """What of the mass-transfer coefficients does not change with the film's state:
         shapes (S, P, n) (`ignite.physics.evaporation.film_mass_transfer_coefficient`)."""
@@ -437,7 +444,7 @@ class _Batch:
         buoyancy, natural convection and the mixed transfer coefficients (ΔH_vap's own
         change with T, about 0.1 % per K, is left out, so the slope is close, not exact).
         Where natural convection starts, stops or changes correlation the surplus has a
-        kink (or a small step at Ra = 1e7), which `_film_root` brackets."""
+        kink (or a small step at Ra = 1e7), which `_settle` brackets."""
         import numpy as np
 
         t = temperature
@@ -539,26 +546,8 @@ class _Batch:
         if fastest:
             warm = np.maximum(self.skin, self.air)[:, None] * np.ones_like(total)
             return self._surface(warm, x, far, covered, True)[1]
-        return np.where(total[..., None] > 0.0, self._film_root(x, far, covered, total > 0.0), 0.0)
-
-    def _film_root(self, x: Array, far: Array, covered: Array, wet: Mask) -> Array:
-        """Fluxes at the film temperature: the root of the heat surplus, found from the last
-        temperature by Newton's method kept inside a bracket.
-
-        The step uses the surplus's slope (`_surface_sloped`, within 1 % of a numerical
-        derivative on the sample cases). Each evaluation narrows a bracket on the root; a
-        step that would leave it halves it instead, which settles the samples whose
-        surplus has a kink or a step near the root (natural convection starting, stopping
-        or changing correlation), where Newton's steps swing across. A sample is done:
-        - once its step, inside the bracket, is under NEWTON_LINEAR; its fluxes are then
-          moved to first order by the step along their own slope (the second-order term
-          is under 1e-4 of a flux);
-        - or once its bracket is narrower than BRACKET_WIDTH; its fluxes are then those at
-          the end last evaluated.
-        Only `wet` patches count: a dry patch's temperature moves no flux."""
-
-        found, self.temperature = _settle(self, self.temperature, x, far, covered, wet)
-        return found
+        found, self.temperature = _settle(self, self.temperature, x, far, covered, total > 0.0)
+        return np.where(total[..., None] > 0.0, found, 0.0)
 
     def rates(self, moles: Array, pocket: Array, covered: Array, fastest: bool) -> _Rates:
         """d moles/dt (S,P,n), and the film's source into the pocket [mol/s] and the
@@ -599,11 +588,22 @@ class _Batch:
 def _settle(
     model: _Batch, t: Array, x: Array, far: Array, covered: Array, wet: Mask
 ) -> tuple[Array, Array]:
-    """(fluxes, temperatures) of `model._film_root`, from the temperatures `t`.
+    """(fluxes, temperatures) at the film temperature: the root of the heat surplus, found
+    from the temperatures `t` by Newton's method kept inside a bracket.
 
-    After the first step, the few samples not yet settled (those whose root sits at a kink
-    take several steps) go on alone, on `model.subset` of them, so their extra steps do
-    not evaluate every sample again."""
+    The step uses the surplus's slope (`_surface_sloped`, within 1 % of a numerical
+    derivative on the sample cases). Each evaluation narrows a bracket on the root; a
+    step that would leave it halves it instead, which settles the samples whose
+    surplus has a kink or a step near the root (natural convection starting, stopping
+    or changing correlation), where Newton's steps swing across. A sample is done:
+    - once its step, inside the bracket, is under NEWTON_LINEAR; its fluxes are then
+      moved to first order by the step along their own slope (the second-order term
+      is under 1e-4 of a flux);
+    - or once its bracket is narrower than BRACKET_WIDTH; its fluxes are then those at
+      the end last evaluated.
+    Only `wet` patches count: a dry patch's temperature moves no flux. After the first step
+    the few samples not yet settled go on alone, on `model.subset` of them, so their extra
+    steps do not evaluate every sample again."""
     import numpy as np
 
     low = np.full_like(t, -np.inf)
@@ -644,9 +644,7 @@ def _settle(
             open_rows = ~done[rows]
             found[rows] = np.where(open_rows[..., None], rest, found[rows])
             t[rows] = np.where(open_rows, t_rest, t[rows])
-            transfer = model.transfer.copy()
-            transfer[rows] = part.transfer
-            model.transfer = transfer
+            model.take_back(part, rows, ("transfer",))
             return found, t
     raise RuntimeError("the film temperature did not settle")  # a bracket halves each time
 
@@ -702,9 +700,7 @@ def _heun(
         moles[moving], pocket[moving] = stepped[0], stepped[1]
         dt = np.zeros_like(cap)
         dt[moving] = stepped[2]
-        temperature, transfer = model.temperature.copy(), model.transfer.copy()
-        temperature[moving], transfer[moving] = part.temperature, part.transfer
-        model.temperature, model.transfer = temperature, transfer
+        model.take_back(part, moving, ("temperature", "transfer"))
         return moles, pocket, dt
 
     d_moles, source, conductance = start or model.rates(moles, pocket, covered, fastest)
