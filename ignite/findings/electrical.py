@@ -53,26 +53,24 @@ def _monitor_context(found: ElectricalResult) -> dict[str, str | int]:
     }
 
 
-@result("electrical.imd_alarm_setting", "resistance", "measured")
-def _imd_setting(scope: Scope) -> Iterator[Item]:
+def _monitor_reading(scope: Scope, field: str) -> Iterator[Item]:
+    """The insulation monitor's reading `field` of an isolated supply, when given."""
     found = _electrical(scope)
     if found is None or found.supply is None or found.supply.system != "isolated":
         return
-    if found.supply.imd_alarm_setting_ohm is not None:
-        yield Item(
-            sentences.IMD_SUBJECT, found.supply.imd_alarm_setting_ohm, _monitor_context(found)
-        )
+    reading = getattr(found.supply, field)
+    if reading is not None:
+        yield Item(sentences.IMD_SUBJECT, reading, _monitor_context(found))
+
+
+@result("electrical.imd_alarm_setting", "resistance", "measured")
+def _imd_setting(scope: Scope) -> Iterator[Item]:
+    return _monitor_reading(scope, "imd_alarm_setting_ohm")
 
 
 @result("electrical.imd_alarm_tested", "resistance", "measured")
 def _imd_tested(scope: Scope) -> Iterator[Item]:
-    found = _electrical(scope)
-    if found is None or found.supply is None or found.supply.system != "isolated":
-        return
-    if found.supply.imd_tested_alarm_at_ohm is not None:
-        yield Item(
-            sentences.IMD_SUBJECT, found.supply.imd_tested_alarm_at_ohm, _monitor_context(found)
-        )
+    return _monitor_reading(scope, "imd_tested_alarm_at_ohm")
 
 
 def _readings(scope: Scope, test: str, limits: bool) -> Iterator[Item]:

@@ -1238,6 +1238,14 @@ def microshock_rows(
     return rows
 
 
+def _ohms_at_least(value: float, minimum: float | None) -> str:
+    """A resistance, with the minimum it must reach beside it when there is one."""
+    if minimum is None:
+        return format_si(value, "Ω")
+    shown, least = format_against_limit(value, minimum, "Ω")
+    return f"{shown} ({say.limit_of('≥ ' + least)})"
+
+
 def _electrical_view(results: Results) -> ElectricalView | None:
     found = results.electrical
     if found is None:
@@ -1249,21 +1257,13 @@ def _electrical_view(results: Results) -> ElectricalView | None:
         if s.transformer_rating_VA is not None:
             rows.append((say.SUPPLY_TRANSFORMER, say.volt_amperes(s.transformer_rating_VA)))
         if s.imd_alarm_setting_ohm is not None:
-            alarm = format_si(s.imd_alarm_setting_ohm, "Ω")
-            if s.imd_alarm_min_ohm is not None:
-                alarm, minimum = format_against_limit(
-                    s.imd_alarm_setting_ohm, s.imd_alarm_min_ohm, "Ω"
-                )
-                alarm = f"{alarm} ({say.limit_of('≥ ' + minimum)})"
-            rows.append((say.SUPPLY_ALARM, alarm))
+            rows.append(
+                (say.SUPPLY_ALARM, _ohms_at_least(s.imd_alarm_setting_ohm, s.imd_alarm_min_ohm))
+            )
         if s.imd_tested_alarm_at_ohm is not None:
-            tested = format_si(s.imd_tested_alarm_at_ohm, "Ω")
-            if s.imd_alarm_min_ohm is not None:
-                tested, minimum = format_against_limit(
-                    s.imd_tested_alarm_at_ohm, s.imd_alarm_min_ohm, "Ω"
-                )
-                tested = f"{tested} ({say.limit_of('≥ ' + minimum)})"
-            rows.append((say.SUPPLY_TESTED, tested))
+            rows.append(
+                (say.SUPPLY_TESTED, _ohms_at_least(s.imd_tested_alarm_at_ohm, s.imd_alarm_min_ohm))
+            )
         if s.insulation_reading_ohm is not None:
             rows.append((say.SUPPLY_INSULATION, format_si(s.insulation_reading_ohm, "Ω")))
         supply = Table(headers=(say.HEADING_SUPPLY, ""), rows=tuple(rows), widths=(1.6, 1.6))
