@@ -66,6 +66,9 @@ __all__ = ["BatchDrying", "BatchInputs", "batch_supported", "dry_batch", "gamma_
 STEP_CHANGE = 0.04
 """Largest share of the flammable liquid one step may remove (2 % moved no figure of the
 sample cases by more than 0.1 % against 4 %, at a third more steps)."""
+TAIL_CHANGE = 0.2
+"""Largest share of the flammable liquid one step may remove once it is below the dry
+fraction (what is read there: the film from drying until nearly gone, for late drapings)."""
 SAFE_TOLERANCE = 0.01
 """Relative width at which the search for the safe draping time stops (its upper end is kept)."""
 STEP_STABLE = 0.5
@@ -185,6 +188,29 @@ def _lookup(cas: str, kind: str, temperature: Array) -> Array:
     return found
 
 
+@lru_cache(maxsize=32)
+def _stacked_tables(cas: tuple[str, ...]) -> tuple[float, Array]:
+    """(first T, ln P_sat of each component then ΔH_vap of each on T_GRID): shape
+    (temperatures, 2n), so that one index reads them all."""
+    import numpy as np
+
+    columns = [_property_table(c, "psat") for c in cas] + [_property_table(c, "dh") for c in cas]
+    return columns[0][0], np.stack([table for _, table in columns], axis=1)
+
+
+def _lookups(cas: tuple[str, ...], temperature: Array) -> tuple[Array, Array]:
+    """(P_sat, ΔH_vap) of every component at `temperature`, shapes (..., n): as `_lookup`."""
+    import numpy as np
+
+    start, table = _stacked_tables(cas)
+    position = np.clip((temperature - start) / T_GRID, 0.0, len(table) - 1.000001)
+    low = np.floor(position).astype(int)
+    weight = (position - low)[..., None]
+    between = (1.0 - weight) * table[low] + weight * table[low + 1]
+    n = len(cas)
+    return np.exp(between[..., :n]), between[..., n:]
+
+
 _GAMMA_NODES: dict[tuple[tuple[str, str], int], Array] = {}
 
 
@@ -241,11 +267,25 @@ def _gammas_sloped(cas: tuple[str, ...], temperature: Array, x1: Array) -> tuple
     xi = np.minimum(np.floor(xs).astype(int), GAMMA_X_POINTS - 2)
     xw = (xs - xi)[..., None]
     first, block = _gamma_block(pair, int(low.min()), int(low.max()) + 1)
-    row = low - first
-    below = (1.0 - xw) * block[row, xi] + xw * block[row, xi + 1]
-    above = (1.0 - xw) * block[row + 1, xi] + xw * block[row + 1, xi + 1]
+    flat = block.reshape(-1, block.shape[-1])  # (nodes·points, n): one index reads a corner
+    corner = (low - first) * GAMMA_X_POINTS + xi
+    below = (1.0 - xw) * flat[corner] + xw * flat[corner + 1]
+    corner = corner + GAMMA_X_POINTS
+    above = (1.0 - xw) * flat[corner] + xw * flat[corner + 1]
     found: Array = np.exp((1.0 - weight) * below + weight * above)
     return found, (above - below) / GAMMA_T_SPACING
+
+
+def _across(values: Array) -> Array:
+    """The sum over the last axis (the components), as `values.sum(-1)` gives it, without a
+    numpy reduction over a short axis (slow per call on one or two components)."""
+    if values.shape[-1] == 1:
+        return values[..., 0]
+    if values.shape[-1] == 2:
+        found: Array = values[..., 0] + values[..., 1]
+        return found
+    summed: Array = values.sum(-1)
+    return summed
 
 
 # --- the model ----------------------------------------------------------------------------
@@ -314,7 +354,12 @@ class _Batch:
             p_water = given.relative_humidity * _lookup(WATER_CAS, "psat", self.air)
             self.room[:, water] = p_water / (GAS_CONSTANT * self.air)
         self.flammable_mass0 = self.flammable_mass(self.initial)
+        self.dry_mass = assumptions.dry_fraction * self.flammable_mass0
         self.temperature = np.repeat(self.skin[:, None], len(volumes), axis=1)
+        # the film temperature's change over the last step, and that step: a first guess
+        # for the next step's trial state (the film warms or cools steadily under drapes)
+        self.drift = np.zeros_like(self.temperature)
+        self.drift_step = np.zeros(s)
         self.transfer = np.zeros_like(self.initial)  # the last mass-transfer coefficients [m/s]
         self._transfer_constants()
 
@@ -323,6 +368,9 @@ class _Batch:
         "alpha",
         "conductance",
         "diffusivity",
+        "drift",
+        "drift_step",
+        "dry_mass",
         "flammable_mass0",
         "floor",
         "flow_length",
@@ -412,8 +460,7 @@ class _Batch:
 
         to_fraction = GAS_CONSTANT * self.air[:, None] / self.pressure
         fractions = np.maximum(concentrations, 0.0) * to_fraction
-        found: Array = np.sum(np.where(self.flammable, fractions / self.lfl, 0.0), axis=1)
-        return found
+        return _across(np.where(self.flammable, fractions / self.lfl, 0.0))
 
     # -- the liquid surface --------------------------------------------------------------
 
@@ -449,73 +496,39 @@ class _Batch:
 
         t = temperature
         gammas, d_ln_gammas = _gammas_sloped(self.cas, t, x[..., 0])
-        psat = np.stack([_lookup(c, "psat", t) for c in self.cas], axis=-1)
-        heats = np.stack([_lookup(c, "dh", t) for c in self.cas], axis=-1)
-        partial = np.where(self.volatile, x * gammas * psat, 0.0)
+        psat, heats = _lookups(self.cas, t)
+        volatile = self.volatile
+        partial = np.where(volatile, x * gammas * psat, 0.0)
         fractions = partial / self.pressure
-        surface_mass = (1.0 - fractions.sum(-1)) * AIR_MOLAR_MASS + fractions @ self.molar_mass
+        surface_mass = (1.0 - _across(fractions)) * AIR_MOLAR_MASS + fractions @ self.molar_mass
         far_fractions = np.maximum(far, 0.0) * GAS_CONSTANT * self.air[:, None] / self.pressure
-        rest = np.maximum(1.0 - far_fractions.sum(-1), 0.0)
+        rest = np.maximum(1.0 - _across(far_fractions), 0.0)
         far_mass = (rest * AIR_MOLAR_MASS + far_fractions @ self.molar_mass)[:, None]
         if fastest:
             surface_mass = np.full_like(t, AIR_MOLAR_MASS)
             far_mass = np.full_like(t, AIR_MOLAR_MASS)
         air = self.air[:, None]
         buoyancy = 1.0 - surface_mass * air / (far_mass * t)
-        root_speed = np.sqrt(np.where(covered, self.under_speed, self.speed))[:, None]
+        root_speed = np.sqrt(np.where(covered, self.under_speed, self.speed))[:, None, None]
         lift = np.maximum(buoyancy, 0.0)
-        if sloped:
-            # d ln (x γ P_sat)/dT, and what follows from it: the surface gas's weight,
-            # the buoyancy, and the relative change of the lift (0 where there is none)
-            d_ln_partial = heats / (GAS_CONSTANT * t * t)[..., None] + d_ln_gammas
-            d_surface_mass = (fractions * d_ln_partial) @ (self.molar_mass - AIR_MOLAR_MASS)
-            d_buoyancy = air / far_mass * (surface_mass / t**2 - d_surface_mass / t)
-            with np.errstate(divide="ignore", invalid="ignore"):
-                d_ln_lift = np.where(buoyancy > 0.0, d_buoyancy / buoyancy, 0.0)
-        fluxes = np.zeros_like(x)
-        latent = np.zeros_like(t)
-        d_fluxes = np.zeros_like(x) if sloped else fluxes
-        transfer = np.zeros_like(x)
-        d_latent = np.zeros_like(t)
-        h_sum = np.zeros_like(t)
-        d_h_sum = np.zeros_like(t)
-        count = 0
-        for i in range(len(self.cas)):
-            if not self.volatile[i]:
-                continue
-            k_forced = self.forced[..., i] * root_speed
-            rayleigh = self.rayleigh_per_buoyancy[..., i] * lift
-            laminar = rayleigh <= 1e7
-            sh_natural = np.where(
-                laminar, 0.54 * np.sqrt(np.sqrt(rayleigh)), 0.15 * np.cbrt(rayleigh)
-            )
-            k_natural = sh_natural * self.natural_scale[..., i]
-            k_mixed = np.cbrt(k_forced**3 + k_natural**3)
-            above_floor = k_mixed > self.floor[..., i]
-            k_open = np.where(above_floor, k_mixed, self.floor[..., i])
-            h_sum = h_sum + k_open * self.heat_factor[..., i]
-            count += 1
-            k = 1.0 / (1.0 / k_open + self.layer_resistance[..., i])
-            transfer[..., i] = k
-            at_surface = partial[..., i] / (GAS_CONSTANT * t)
-            driving = at_surface - far[:, None, i]
-            flux = k * driving
-            fluxes[..., i] = flux
-            latent = latent + flux * heats[..., i]
-            if sloped:
-                d_k_natural = k_natural * d_ln_lift * np.where(laminar, 0.25, 1.0 / 3.0)
-                with np.errstate(divide="ignore", invalid="ignore"):
-                    d_k_mixed = np.where(
-                        k_mixed > 0.0, k_natural**2 * d_k_natural / k_mixed**2, 0.0
-                    )
-                d_k_open = np.where(above_floor, d_k_mixed, 0.0)
-                d_h_sum = d_h_sum + d_k_open * self.heat_factor[..., i]
-                d_k = d_k_open * (k / k_open) ** 2
-                d_at_surface = at_surface * (d_ln_partial[..., i] - 1.0 / t)
-                d_flux = d_k * driving + k * d_at_surface
-                d_fluxes[..., i] = d_flux
-                d_latent = d_latent + d_flux * heats[..., i]
-        self.transfer = transfer
+        # the components along the last axis (a component that does not evaporate has
+        # no flux and no share in the heat transfer coefficient)
+        k_forced = self.forced * root_speed
+        rayleigh = self.rayleigh_per_buoyancy * lift[..., None]
+        laminar = rayleigh <= 1e7
+        sh_natural = np.where(laminar, 0.54 * np.sqrt(np.sqrt(rayleigh)), 0.15 * np.cbrt(rayleigh))
+        k_natural = sh_natural * self.natural_scale
+        k_mixed = np.cbrt(k_forced**3 + k_natural**3)
+        above_floor = k_mixed > self.floor
+        k_open = np.where(above_floor, k_mixed, self.floor)
+        count = int(volatile.sum())
+        h_sum = _across(np.where(volatile, k_open * self.heat_factor, 0.0))
+        k = np.where(volatile, 1.0 / (1.0 / k_open + self.layer_resistance), 0.0)
+        self.transfer = k
+        at_surface = partial / (GAS_CONSTANT * t)[..., None]
+        driving = at_surface - far[:, None, :]
+        fluxes = k * driving
+        latent = _across(fluxes * heats)
         h_open = h_sum / max(count, 1)
         layered = (self.layer > 0.0) & (h_open > 0.0)
         with np.errstate(divide="ignore"):
@@ -526,6 +539,22 @@ class _Batch:
         )
         if not sloped:
             return surplus, fluxes, surplus, fluxes
+        # d ln (x γ P_sat)/dT, and what follows from it: the surface gas's weight, the
+        # buoyancy, the relative change of the lift (0 where there is none), natural
+        # convection and the mixed coefficients
+        d_ln_partial = heats / (GAS_CONSTANT * t * t)[..., None] + d_ln_gammas
+        d_surface_mass = (fractions * d_ln_partial) @ (self.molar_mass - AIR_MOLAR_MASS)
+        d_buoyancy = air / far_mass * (surface_mass / t**2 - d_surface_mass / t)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            d_ln_lift = np.where(buoyancy > 0.0, d_buoyancy / buoyancy, 0.0)
+            d_k_natural = k_natural * d_ln_lift[..., None] * np.where(laminar, 0.25, 1.0 / 3.0)
+            d_k_mixed = np.where(k_mixed > 0.0, k_natural**2 * d_k_natural / k_mixed**2, 0.0)
+        d_k_open = np.where(above_floor & volatile, d_k_mixed, 0.0)
+        d_h_sum = _across(d_k_open * self.heat_factor)
+        d_k = d_k_open * (k / k_open) ** 2
+        d_at_surface = at_surface * (d_ln_partial - 1.0 / t[..., None])
+        d_fluxes = np.where(volatile, d_k * driving + k * d_at_surface, 0.0)
+        d_latent = _across(d_fluxes * heats)
         d_h_open = d_h_sum / max(count, 1)
         with np.errstate(divide="ignore", invalid="ignore"):
             d_h = np.where(layered, d_h_open * (h / h_open) ** 2, d_h_open)
@@ -571,6 +600,8 @@ class _Batch:
         pocket's time constant V/(Q + G) (an explicit step is not, past twice it)."""
         import numpy as np
 
+        if not covered.any():
+            return pocket
         rate = self.pocket_exchange[:, None] + conductance
         with np.errstate(divide="ignore", invalid="ignore"):
             level = (
@@ -661,7 +692,10 @@ def _step_size(model: _Batch, moles: Array, change: Array, cap: Array) -> Array:
     with np.errstate(divide="ignore", invalid="ignore"):
         # past a millionth of the flammable liquid nothing read from it changes
         needed = (loss > 0.0) & (mass > GONE_SHARE * model.flammable_mass0)
-        accurate = np.where(needed, STEP_CHANGE * mass / loss, np.inf)
+        # below the dry fraction the share grows to TAIL_CHANGE: Heun's method leaves
+        # more of a decaying film than there is (1 - z + z²/2 > e^-z), so it errs wet
+        share_of_mass = np.where(mass > model.dry_mass, STEP_CHANGE, TAIL_CHANGE)
+        accurate = np.where(needed, share_of_mass * mass / loss, np.inf)
         share = np.where(change < 0.0, np.maximum(moles, 0.0) / -change, np.inf)
     share = np.where(moles > GONE_SHARE * model.initial, share, np.inf)
     # a patch thinner than twice the breakup film holds under 0.1 % of any application:
@@ -700,14 +734,24 @@ def _heun(
         moles[moving], pocket[moving] = stepped[0], stepped[1]
         dt = np.zeros_like(cap)
         dt[moving] = stepped[2]
-        model.take_back(part, moving, ("temperature", "transfer"))
+        model.take_back(part, moving, ("temperature", "transfer", "drift", "drift_step"))
         return moles, pocket, dt
 
     d_moles, source, conductance = start or model.rates(moles, pocket, covered, fastest)
     dt = np.where(cap > 0.0, _step_size(model, moles, d_moles, cap), 0.0)
     trial = np.maximum(moles + dt[:, None, None] * d_moles, 0.0)
     trial_pocket = model.pocket_after(pocket, source, conductance, dt, covered)
+    if not fastest:
+        # the trial's film temperature first guessed along the last step's change
+        present = model.temperature
+        with np.errstate(divide="ignore", invalid="ignore"):
+            scale = np.where(model.drift_step > 0.0, np.minimum(dt / model.drift_step, 2.0), 0.0)
+        model.temperature = present + model.drift * scale[:, None]
     d_moles2, source2, conductance2 = model.rates(trial, trial_pocket, covered, fastest)
+    if not fastest:
+        moved = dt > 0.0
+        model.drift = np.where(moved[:, None], model.temperature - present, model.drift)
+        model.drift_step = np.where(moved, dt, model.drift_step)
     moles = np.maximum(moles + 0.5 * dt[:, None, None] * (d_moles + d_moles2), 0.0)
     # the pocket: the two sources averaged, the trial's carried back to the present pocket
     # along its conductance, and the linear equation solved over the step
@@ -887,16 +931,27 @@ def _dry_batch(
     peak = np.where(still_there, peak, 0.0)
 
     # the safe draping time: regula falsi (Illinois) on the peak against the draping time,
-    # the planned draping a first point inside the bracket; each bracket's upper end safe
-    first, *_ = _covered(
-        fast, np.zeros_like(draping), fast.initial, dry_fraction, True, until="peak"
-    )
+    # the planned draping a first point inside the bracket; each bracket's upper end safe. A sample
+    # whose planned draping is unsafe needs no run from the end of prepping (the peak only
+    # falls with later draping): the planned draping is its bracket's lower end.
+    inside = still_there & (draping > 0.0) & (draping < gone)
+    unsafe_as_planned = inside & (peak > margin)
+    first = peak.copy()
+    need_first = ~unsafe_as_planned
+    if need_first.any():
+        first[need_first] = _covered(
+            fast.subset(need_first),
+            np.zeros(int(need_first.sum())),
+            fast.initial[need_first],
+            dry_fraction,
+            True,
+            until="peak",
+        )[0]
     low, f_low = np.zeros_like(draping), first - margin
     high = np.where(np.isinf(gone), math.inf, gone)
     f_high = np.full_like(draping, -margin)  # nothing left to feed the pocket
-    inside = still_there & (draping > 0.0) & (draping < high)
-    low = np.where(inside & (peak > margin), draping, low)
-    f_low = np.where(inside & (peak > margin), peak - margin, f_low)
+    low = np.where(unsafe_as_planned, draping, low)
+    f_low = np.where(unsafe_as_planned, peak - margin, f_low)
     high = np.where(inside & (peak <= margin), draping, high)
     f_high = np.where(inside & (peak <= margin), peak - margin, f_high)
     safe = np.where(first <= margin, 0.0, high)
