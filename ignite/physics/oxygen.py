@@ -17,6 +17,7 @@ times [s], air changes [1/s].
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 
 __all__ = [
     "buildup_time",
@@ -220,6 +221,29 @@ def fraction_after_stop(
     Reference: exponential washout of a well-mixed volume (dilution ventilation).
     """
     return pocket_fraction(t, c0, ambient, volume, exchange)
+
+
+def fractions_after_stop(
+    c0: float,
+    times: Sequence[float],
+    volume: float,
+    exchange: float,
+    ambient: float,
+) -> list[float]:
+    """`fraction_after_stop` at each of `times` [s] (the inputs checked once, for curves).
+
+    >>> [round(c, 4) for c in fractions_after_stop(0.45, [0.0, 60.0], 0.050, 10e-3 / 60, 0.209)]
+    [0.45, 0.4063]
+    """
+    _check_pocket(volume, exchange)
+    if any(t < 0.0 for t in times):
+        raise ValueError(f"times must be >= 0 s, got {min(times)!r}")
+    if exchange == 0.0:
+        return [c0 for _ in times]
+    rate = -exchange
+    return [
+        c0 if t == 0.0 else ambient + (c0 - ambient) * math.exp(rate * t / volume) for t in times
+    ]
 
 
 def room_oxidant_rise(

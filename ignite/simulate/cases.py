@@ -135,8 +135,9 @@ class SiteOxygen:
     notes: tuple[str, ...]
 
 
-def site_oxygen(case: Case, bound: Bound) -> SiteOxygen:
-    """The drape pocket's oxidant for a case's delivery, site and pocket (well mixed)."""
+def site_oxygen(case: Case, bound: Bound, *, curve: bool = True) -> SiteOxygen:
+    """The drape pocket's oxidant for a case's delivery, site and pocket (well mixed);
+    `curve` False leaves the curve empty (a sampled run reads the figures alone)."""
     ambient = bound.oxygen.ambient
     enriched = bound.oxygen.enriched_limit
     ox = case.oxygen
@@ -168,7 +169,9 @@ def site_oxygen(case: Case, bound: Bound) -> SiteOxygen:
         ),
         curve=_oxygen_curve(
             steady, ox.stop_before_activation, pocket.volume, pocket.exchange, ambient, washout
-        ),
+        )
+        if curve
+        else (),
         notes=tuple(notes),
     )
 
@@ -328,7 +331,6 @@ def _oxygen_curve(
     """Oxidant at the site from the moment oxygen stops (t = 0) to past activation."""
     end = max(stop, washout, 60.0) * 1.3
     steps = 60
-    return tuple(
-        (t, oxygen.fraction_after_stop(c_ss, t, volume, exchange, ambient))
-        for t in (end * i / steps for i in range(steps + 1))
-    )
+    times = [end * i / steps for i in range(steps + 1)]
+    fractions = oxygen.fractions_after_stop(c_ss, times, volume, exchange, ambient)
+    return tuple(zip(times, fractions, strict=True))

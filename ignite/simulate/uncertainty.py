@@ -363,7 +363,7 @@ def _case_spread(
     oxygen_curves = []
     for room, sampled in samples:
         case = room.cases[index]
-        site = site_oxygen(case, sampled)
+        site = site_oxygen(case, sampled, curve=False)
         washout.append(site.washout_s)
         at_activation.append(site.at_activation)
         found, _ = lowest_mie(case_fuels(case, sampled), site.at_activation, ambient)
@@ -561,10 +561,7 @@ def _oxygen_at(steady: float, case: Case, bound: Bound, times: Sequence[float]) 
 
     pocket = case.drape_pocket
     ambient = bound.oxygen.ambient
-    return [
-        oxygen.fraction_after_stop(steady, t, pocket.volume, pocket.exchange, ambient)
-        for t in times
-    ]
+    return oxygen.fractions_after_stop(steady, times, pocket.volume, pocket.exchange, ambient)
 
 
 def _drying_key(case: Case, room: Room, bound: Bound) -> tuple[Any, ...]:
