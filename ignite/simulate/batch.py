@@ -4,21 +4,27 @@ The equations are those of `ignite.simulate.film` (film patches, mixed convectio
 film's heat balance, the well-mixed drape pocket) and the timeline that of
 `ignite.simulate.drying` (open air until draping; the slow film for drying, the fastest
 film for the pocket; the safe draping time as the earliest draping that keeps the pocket's
-peak within its margin). What differs is how they are solved: every sample advances
-together, each with its own step (at most 4 % of the flammable liquid, and half of what is
-left of any component, per step; at most 60 s in open air and 300 s under the drapes), the
-film by Heun's method, the pocket by solving its linear equation exactly over the step
-(stable however short its time constant); the film temperature by Newton's method kept inside a bracket on the heat
-balance; the safe draping time by regula falsi (Illinois) on the draping time, stepping
-only the samples still searching; vapour pressures and enthalpies of vaporisation from
-tables in T (0.1 K), a binary's ln γ from a table in T (2 K, as the scalar solver) and x₁
-(201 points) built once per preparation by direct UNIFAC calls.
+peak within its margin). What differs is how they are solved:
+- every sample advances together, each with its own step: at most 4 % of the flammable
+  liquid (20 % once it is below the dry fraction) and half of what is left of any
+  component per step, at most 60 s in open air and 300 s under the drapes;
+- the film by Heun's method, the pocket by solving its linear equation exactly over the
+  step (stable however short its time constant);
+- the film temperature by Newton's method kept inside a bracket on the heat balance, from
+  a first guess carried along the last step's change (`_settle`);
+- the safe draping time by regula falsi (Illinois) on the draping time, stepping only the
+  samples still searching;
+- vapour pressures and enthalpies of vaporisation from tables in T (0.1 K), a binary's
+  ln γ from a table in T (2 K, as the scalar solver) and x₁ (201 points) built once per
+  preparation by direct UNIFAC calls.
 
 Which side it errs on: a time is read at the end of the step in which it is passed
 (drying, the film gone), and the safe draping time is the upper end of its last bracket,
-so each errs late; tests/simulate/test_batch.py checks drying times, pocket peaks and
-safe draping times against the scalar solver on the sample cases and states the
-tolerance. Preparations of three or more components are left to the scalar solver.
+so each errs late; past the dry fraction, Heun's method leaves more of a decaying film than
+there is (1 - z + z²/2 > e^-z), so the longer steps there err wet.
+tests/simulate/test_batch.py checks drying times, pocket peaks and safe draping times
+against the scalar solver on the sample cases and states the tolerance. Preparations of
+three or more components are left to the scalar solver.
 """
 
 from __future__ import annotations
@@ -545,6 +551,7 @@ class _Batch:
         d_ln_partial = heats / (GAS_CONSTANT * t * t)[..., None] + d_ln_gammas
         d_surface_mass = (fractions * d_ln_partial) @ (self.molar_mass - AIR_MOLAR_MASS)
         d_buoyancy = air / far_mass * (surface_mass / t**2 - d_surface_mass / t)
+        self.buoyancy = buoyancy
         with np.errstate(divide="ignore", invalid="ignore"):
             d_ln_lift = np.where(buoyancy > 0.0, d_buoyancy / buoyancy, 0.0)
             d_k_natural = k_natural * d_ln_lift[..., None] * np.where(laminar, 0.25, 1.0 / 3.0)
@@ -624,9 +631,12 @@ def _settle(
 
     The step uses the surplus's slope (`_surface_sloped`, within 1 % of a numerical
     derivative on the sample cases). Each evaluation narrows a bracket on the root; a
-    step that would leave it halves it instead, which settles the samples whose
-    surplus has a kink or a step near the root (natural convection starting, stopping
-    or changing correlation), where Newton's steps swing across. A sample is done:
+    step that would leave it, or is not half the last step (the safeguard of Numerical
+    Recipes' rtsafe), is replaced: by false position in y = lift^¼ when natural convection
+    is on at an end (Illinois: an end kept twice over counts half), else by the bracket's
+    middle. That settles the samples whose surplus has a kink or a step near the root
+    (natural convection starting, leaving the diffusion floor or changing correlation),
+    where Newton's steps swing across. A sample is done:
     - once its step, inside the bracket, is under NEWTON_LINEAR; its fluxes are then
       moved to first order by the step along their own slope (the second-order term
       is under 1e-4 of a flux);
@@ -639,12 +649,22 @@ def _settle(
 
     low = np.full_like(t, -np.inf)
     high = np.full_like(t, np.inf)
+    f_low, f_high, b_low, b_high = (np.zeros_like(t) for _ in range(4))  # at the ends
+    moved_end = np.zeros_like(t)  # +1: the last evaluation moved the low end, -1: the high
+    previous = np.full_like(t, np.inf)  # the size of the last step taken
     done = ~wet
     found = np.zeros_like(x)
     for iteration in range(ROOT_ITERATIONS):
         surplus, flux, slope, d_flux = model._surface_sloped(t, x, far, covered, False, True)
-        low = np.where(surplus > 0.0, np.maximum(low, t), low)
-        high = np.where(surplus > 0.0, high, np.minimum(high, t))
+        raised = (surplus > 0.0) & (t > low)
+        lowered = (surplus <= 0.0) & (t < high)
+        low, high = np.where(raised, t, low), np.where(lowered, t, high)
+        # (Illinois: an end kept twice over counts half, so that both ends move)
+        f_low = np.where(raised, surplus, np.where(lowered & (moved_end < 0), 0.5, 1.0) * f_low)
+        f_high = np.where(lowered, surplus, np.where(raised & (moved_end > 0), 0.5, 1.0) * f_high)
+        moved_end = np.where(raised, 1.0, np.where(lowered, -1.0, moved_end))
+        b_low = np.where(raised, model.buoyancy, b_low)
+        b_high = np.where(lowered, model.buoyancy, b_high)
         with np.errstate(divide="ignore", invalid="ignore"):
             step = np.where(slope < 0.0, -surplus / slope, np.sign(surplus) * NEWTON_STEP)
         candidate = t + step
@@ -664,10 +684,27 @@ def _settle(
         if done.all():
             return found, t_next
         candidate = t + np.clip(step, -NEWTON_STEP, NEWTON_STEP)
+        bracketed = np.isfinite(low) & np.isfinite(high)
+        # a Newton step that leaves the bracket, or is not half the last one, is not used
         leaves = (candidate <= low) | (candidate >= high)
-        with np.errstate(invalid="ignore"):
+        leaves = leaves | (bracketed & (np.abs(step) > 0.5 * previous))
+        with np.errstate(invalid="ignore", divide="ignore"):
             halved = np.where(np.isfinite(low) & np.isfinite(high), 0.5 * (low + high), t)
-        t = np.where(done, t_next, np.where(leaves, halved, candidate))
+            # a bracket with natural convection at one end or both: the surplus bends
+            # sharply where natural convection lifts the mass-transfer coefficients off
+            # their diffusion floor; false position is taken in y = lift^¼ (laminar
+            # natural convection grows as y), where it is nearer straight than in T, and
+            # mapped back through the buoyancy, taken as linear across the bracket
+            y_low = np.sqrt(np.sqrt(np.maximum(b_low, 0.0)))
+            y_high = np.sqrt(np.sqrt(np.maximum(b_high, 0.0)))
+            across = bracketed & ((b_low > 0.0) | (b_high > 0.0))
+            y_root = y_low + f_low * (y_high - y_low) / (f_low - f_high)
+            lifted = low + (y_root**4 - b_low) / (b_high - b_low) * (high - low)
+            across = across & (lifted > low) & (lifted < high)
+        inner = np.where(across, lifted, halved)
+        t_then = t
+        t = np.where(done, t_next, np.where(leaves, inner, candidate))
+        previous = np.abs(t - t_then)
         rows: Mask = np.asarray(~done.all(axis=1))  # samples with a patch still to settle
         if iteration == 0 and 2 * int(rows.sum()) <= rows.size:
             part = model.subset(rows)
