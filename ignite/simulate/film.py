@@ -346,8 +346,18 @@ class FilmModel:
             warmest = max(self.skin_temperature, self.air_temperature)
             return self._surface_at(p, warmest, x, far, far_mass, speed)[1]
 
+        seen: dict[float, tuple[float, FilmSurface]] = {}  # each temperature evaluated once
+
+        def at(temperature: float) -> tuple[float, FilmSurface]:
+            found = seen.get(temperature)
+            if found is None:
+                found = seen[temperature] = self._surface_at(
+                    p, temperature, x, far, far_mass, speed
+                )
+            return found
+
         def surplus(temperature: float) -> float:
-            return self._surface_at(p, temperature, x, far, far_mass, speed)[0]
+            return at(temperature)[0]
 
         guess = self._last_temperature[p]
         low, high = guess - 0.5, guess + 0.5
@@ -365,7 +375,7 @@ class FilmModel:
                 raise ValueError("no film temperature balances its heat")
         temperature = float(brentq(surplus, low, high, xtol=1e-7, rtol=1e-12))
         self._last_temperature[p] = temperature
-        return self._surface_at(p, temperature, x, far, far_mass, speed)[1]
+        return at(temperature)[1]
 
     def patch_fluxes(
         self, p: int, moles: Sequence[float], far: Sequence[float], covered: bool
