@@ -798,16 +798,18 @@ def _heun(
     trial = np.maximum(moles + dt[:, None, None] * d_moles, 0.0)
     trial_pocket = model.pocket_after(pocket, source, conductance, dt, covered)
     if not fastest:
-        # the trial's film temperature first guessed along the last step's change
+        # the trial's film temperature first guessed along the last step's change (at
+        # most NEWTON_STEP; a dry patch's temperature is not solved, so it carries none)
         present = model.temperature
         with np.errstate(divide="ignore", invalid="ignore"):
             scale = np.where(model.drift_step > 0.0, np.minimum(dt / model.drift_step, 2.0), 0.0)
-        model.temperature = present + model.drift * scale[:, None]
+        guess = np.clip(model.drift * scale[:, None], -NEWTON_STEP, NEWTON_STEP)
+        model.temperature = present + guess
     d_moles2, source2, conductance2 = model.rates(trial, trial_pocket, covered, fastest)
     if not fastest:
-        moved = dt > 0.0
-        model.drift = np.where(moved[:, None], model.temperature - present, model.drift)
-        model.drift_step = np.where(moved, dt, model.drift_step)
+        moved = (dt > 0.0)[:, None] & (trial.sum(-1) > 0.0)
+        model.drift = np.where(moved, model.temperature - present, 0.0)
+        model.drift_step = np.where(dt > 0.0, dt, model.drift_step)
     moles = np.maximum(moles + 0.5 * dt[:, None, None] * (d_moles + d_moles2), 0.0)
     # the pocket: the two sources averaged, the trial's carried back to the present pocket
     # along its conductance, and the linear equation solved over the step

@@ -216,3 +216,48 @@ def test_wide_inputs_give_finite_figures_without_warnings(hair: bool, pooling: b
         assert (figure >= 0.0).all()
     assert np.isfinite(out.pocket_peak).all()
     assert ((out.left_at_activation >= 0.0) & (out.left_at_activation <= 1.0)).all()
+
+
+def test_a_dry_patch_keeps_a_bounded_temperature() -> None:
+    """A pooled sample whose open patch is gone long before its pool: the dry patch's
+    temperature is not solved, so the first guess carried from step to step (the last
+    step's change) must not grow on it (it once doubled a step at a time, past 450 K,
+    where the activity-coefficient table has no meaning). Regression test of our own."""
+    import warnings
+
+    from conftest import PREP_ASSUMPTIONS
+
+    from ignite.simulate.batch import _Batch, _covered, _open_air
+    from ignite.simulate.preparation import analyse_preparation
+
+    n = 8
+    given = BatchInputs(
+        np.full(n, 20e-6),  # volume
+        np.linspace(0.01, 0.1, n),  # area
+        np.full(n, 305.0),  # skin
+        np.full(n, 294.0),  # air
+        np.full(n, 0.5),  # RH
+        np.full(n, 0.3),  # air speed
+        np.full(n, 600.0),  # draping
+        np.full(n, 900.0),  # first activation
+        np.full(n, 0.03),  # pocket
+        np.full(n, 10e-3 / 60),  # exchange
+        np.full(n, 0.005),  # hair still layer
+        np.full(n, 0.5),  # hair exposed fraction
+        np.full(n, 0.95),  # pooled share of the volume: the open patch is thin
+        np.full(n, 0.02),  # pooled share of the area
+        np.full(n, 15.0),  # tissue conductance
+        False,
+        True,
+    )
+    analysis = analyse_preparation([("isopropanol", 0.7), ("water", 0.3)], "volume", 305.15)
+    dry = PREP_ASSUMPTIONS.dry_fraction
+    model = _Batch(analysis, given, PREP_ASSUMPTIONS)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        history, _, _ = _open_air(model, dry)
+        assert np.all((model.temperature > 250.0) & (model.temperature < 320.0))
+        draped = np.full(n, 60.0)
+        covered = _Batch(analysis, given, PREP_ASSUMPTIONS)
+        _covered(covered, draped, history.at(draped), dry, False, until="dry")
+    assert np.all((covered.temperature > 250.0) & (covered.temperature < 320.0))
