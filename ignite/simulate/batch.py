@@ -989,9 +989,9 @@ def _dry_batch(
     peak = np.where(still_there, peak, 0.0)
 
     # the safe draping time: regula falsi (Illinois) on the peak against the draping time,
-    # the planned draping a first point inside the bracket; each bracket's upper end safe. A sample
-    # whose planned draping is unsafe needs no run from the end of prepping (the peak only
-    # falls with later draping): the planned draping is its bracket's lower end.
+    # the planned draping a first point inside the bracket; each bracket's upper end safe.
+    # A sample whose planned draping is unsafe needs no run from the end of prepping (the
+    # peak only falls with later draping): the planned draping is its bracket's lower end.
     inside = still_there & (draping > 0.0) & (draping < gone)
     unsafe_as_planned = inside & (peak > margin)
     first = peak.copy()
