@@ -191,9 +191,36 @@ def _styles() -> dict[str, ParagraphStyle]:
     }
 
 
+class Para(Paragraph):
+    """A Paragraph that breaks its lines once for each width it is given in a row.
+
+    reportlab asks a paragraph for its size several times at the same width: a table
+    sizes its cells when it is wrapped, again each time it is split or wrapped anew
+    (KeepTogether, a page's frame), and once more when it draws them. The lines depend
+    only on the width (never on the height offered), so a wrap at the width of the last
+    one returns that one's size and leaves its lines in place: what is drawn is the same.
+    A split that gives up on this paragraph drops its lines, and it is broken again.
+    """
+
+    _wrapped: tuple[float, Any, float, float] | None = None  # width, lines, size
+
+    def wrap(self, availWidth: float, availHeight: float) -> tuple[float, float]:
+        last = self._wrapped
+        lines = self.__dict__.get("blPara")
+        if last is not None and last[0] == availWidth and last[1] is lines:
+            self.width, self.height = last[2], last[3]
+            return last[2], last[3]
+        self._wrapped = None
+        width, height = super().wrap(availWidth, availHeight)
+        lines = self.__dict__.get("blPara")
+        if lines is not None and self.width == availWidth:  # not when the width was too small
+            self._wrapped = (availWidth, lines, width, height)
+        return width, height
+
+
 def _p(text: str, style: ParagraphStyle, **kwargs: Any) -> Paragraph:
     """A paragraph of plain text: markup characters are escaped, newlines kept."""
-    return Paragraph(escape(text).replace("\n", "<br/>"), style, **kwargs)
+    return Para(escape(text).replace("\n", "<br/>"), style, **kwargs)
 
 
 # --------------------------------------------------------------------------- page furniture

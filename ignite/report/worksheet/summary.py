@@ -95,15 +95,15 @@ def _styles() -> dict[str, ParagraphStyle]:
 
 def _p(text: str, style: ParagraphStyle) -> Any:
     """A paragraph of plain text: markup characters escaped, newlines kept."""
-    from reportlab.platypus import Paragraph
+    from ignite.report.worksheet.pdf import Para  # lazy: pdf imports reportlab
 
-    return Paragraph(escape(text).replace("\n", "<br/>"), style)
+    return Para(escape(text).replace("\n", "<br/>"), style)
 
 
 def _markup(markup: str, style: ParagraphStyle) -> Any:
-    from reportlab.platypus import Paragraph
+    from ignite.report.worksheet.pdf import Para  # lazy: pdf imports reportlab
 
-    return Paragraph(markup, style)
+    return Para(markup, style)
 
 
 # --------------------------------------------------------------------------- words
