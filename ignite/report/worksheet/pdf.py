@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import calendar
 import dataclasses
+import functools
 import hashlib
 import io
 import itertools
@@ -133,7 +134,9 @@ def register_fonts() -> None:
     pdfmetrics.registerFontFamily(FONT, normal=FONT, bold=BOLD, italic=FONT, boldItalic=BOLD)
 
 
+@functools.cache
 def _styles() -> dict[str, ParagraphStyle]:
+    """The worksheet's paragraph styles, made once a process (nothing changes them)."""
     body = ParagraphStyle(
         "body", fontName=FONT, fontSize=8.5, leading=11, spaceAfter=3, bulletFontName=FONT
     )
@@ -191,18 +194,68 @@ def _styles() -> dict[str, ParagraphStyle]:
     }
 
 
+LAID_OUT_MOST = 4096
+"""Paragraphs whose parse and first line breaks a process keeps (the oldest go first)."""
+
+_PARSED: dict[tuple[Any, ...], tuple[Any, ...]] = {}
+_BROKEN: dict[tuple[Any, ...], tuple[Any, ...]] = {}
+
+
+def _keep(store: dict[tuple[Any, ...], tuple[Any, ...]], key: tuple[Any, ...], value: Any) -> None:
+    if len(store) >= LAID_OUT_MOST:
+        del store[next(iter(store))]
+    store[key] = value
+
+
 class Para(Paragraph):
-    """A Paragraph that breaks its lines once for each width it is given in a row.
+    """A Paragraph that is parsed and broken into lines as few times as the layout allows.
 
     reportlab asks a paragraph for its size several times at the same width: a table
     sizes its cells when it is wrapped, again each time it is split or wrapped anew
     (KeepTogether, a page's frame), and once more when it draws them. The lines depend
-    only on the width (never on the height offered), so a wrap at the width of the last
-    one returns that one's size and leaves its lines in place: what is drawn is the same.
-    A split that gives up on this paragraph drops its lines, and it is broken again.
+    only on the text, the style and the width (never on the height offered), so:
+
+    - a wrap at the width of this paragraph's last one returns that one's size and leaves
+      its lines in place (a split that gives up on the paragraph drops its lines, and it
+      is broken again);
+    - the parse of a text in a style, and its first line breaks at a width, are kept for
+      the process (at most `LAID_OUT_MOST` of each): a worksheet repeats many texts (the
+      column heads, the cautions, the rules), and so do the rooms of an audit. A kept
+      result is what reportlab would make again; the lists it changes as it breaks and
+      splits lines are copied, the fragments themselves it never changes.
+
+    What is drawn is the same, to the byte.
     """
 
+    text: Any  # reportlab's own attributes, set by Paragraph
+    style: ParagraphStyle
+    bulletText: Any
+    frags: list[Any]
     _wrapped: tuple[float, Any, float, float] | None = None  # width, lines, size
+    _fresh = False  # parsed and not yet broken into lines: a kept first wrap may serve
+
+    def __init__(
+        self,
+        text: str | None,
+        style: ParagraphStyle,
+        bulletText: str | None = None,
+        frags: list[Any] | None = None,
+    ) -> None:
+        if frags is not None:  # a piece of a split paragraph (reportlab makes them so)
+            super().__init__(text, style, bulletText, frags)
+            return
+        self._key = (text, style, bulletText)
+        parsed = _PARSED.get(self._key)
+        if parsed is None:
+            super().__init__(text, style, bulletText)
+            _keep(_PARSED, self._key, (self.text, self.style, self.bulletText, self.frags))
+        else:
+            self.caseSensitive = 1
+            self.encoding = "utf8"
+            self.text, self.style, self.bulletText, frags = parsed
+            self.frags = list(frags)
+            self.debug = 0
+        self._fresh = True
 
     def wrap(self, availWidth: float, availHeight: float) -> tuple[float, float]:
         last = self._wrapped
@@ -210,11 +263,42 @@ class Para(Paragraph):
         if last is not None and last[0] == availWidth and last[1] is lines:
             self.width, self.height = last[2], last[3]
             return last[2], last[3]
-        self._wrapped = None
+        fresh, self._fresh, self._wrapped = self._fresh, False, None
+        kept = _BROKEN.get((self._key, availWidth)) if fresh else None
+        if kept is not None:
+            (
+                self.frags,
+                self.blPara,
+                wrap_widths,
+                self._width_max,
+                self._splitLongWordCount,
+                self._hyphenations,
+                self.width,
+                self.height,
+            ) = kept
+            self.frags = list(self.frags)
+            self._wrapWidths = list(wrap_widths)
+            self._wrapped = (availWidth, self.blPara, self.width, self.height)
+            return self.width, self.height
         width, height = super().wrap(availWidth, availHeight)
         lines = self.__dict__.get("blPara")
         if lines is not None and self.width == availWidth:  # not when the width was too small
             self._wrapped = (availWidth, lines, width, height)
+            if fresh:
+                _keep(
+                    _BROKEN,
+                    (self._key, availWidth),
+                    (
+                        list(self.frags),
+                        lines,
+                        list(self._wrapWidths),
+                        self._width_max,
+                        self._splitLongWordCount,
+                        self._hyphenations,
+                        width,
+                        height,
+                    ),
+                )
         return width, height
 
 
