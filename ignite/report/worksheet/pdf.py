@@ -509,6 +509,7 @@ def _cell(text: str, style: ParagraphStyle, width: float) -> Any:
 _JOINTS = re.compile(r"(?<=[._/-])")  # an identifier or file name may break after . _ / -
 
 
+@functools.lru_cache(maxsize=LAID_OUT_MOST)  # the same cell texts come again and again
 def breakable(text: str, font: str, size: float, width: float) -> str:
     """`text` with each word too wide for `width` broken after its dots, dashes, underscores
     or slashes, so that the wrapping never splits an identifier mid-name ("prep.wet-at-
