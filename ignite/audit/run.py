@@ -69,7 +69,7 @@ from ignite.records.register import (
     row_from_results,
 )
 from ignite.records.results import Results, severity_rank
-from ignite.report.worksheet import render_worksheet
+from ignite.report.worksheet import prepare_drawing, render_worksheet
 from ignite.report.worksheet.summary import render_summary
 from ignite.room.ranges import Sampling
 from ignite.rules.rulebook import Rulebook
@@ -436,6 +436,7 @@ def _run_all(
         finally:
             _WORKER.clear()
     else:
+        prepare_drawing()  # once here, not in each worker (forked, they inherit it)
         initargs = (str(rules_dir) if rules_dir else None, book.digest)
         queue: deque[Task] = deque(tasks)
         while queue:  # a fresh pool after each room stopped for its time limit

@@ -21,6 +21,7 @@ __all__ = [
     "OutputExistsError",
     "WorksheetView",
     "build_view",
+    "prepare_drawing",
     "render_worksheet",
     "write_worksheet",
 ]
@@ -38,6 +39,15 @@ def render_worksheet(
     from ignite.report.worksheet.pdf import render
 
     return render(build_view(results, rules, methods, input_text), paper=paper)
+
+
+def prepare_drawing() -> None:
+    """Import reportlab and register the embedded fonts now rather than at the first
+    worksheet. An audit does so before it starts its worker processes: forked, each
+    begins with them, and the audit's own summary needs them anyway."""
+    from ignite.report.worksheet.pdf import register_fonts
+
+    register_fonts()
 
 
 def write_worksheet(path: Path, data: bytes, force: bool = False) -> None:
