@@ -244,6 +244,29 @@ def test_same_input_same_bytes(full_pdf: bytes) -> None:
     assert again == full_pdf
 
 
+def test_kept_paragraph_layouts_draw_what_reportlab_draws(monkeypatch, full_pdf):
+    """The worksheet's paragraphs (`pdf.Para`: each text parsed and broken into lines once
+    a process, each paragraph wrapped once a width) give the bytes reportlab's own
+    Paragraph gives, which parses and wraps anew every time it is asked; on both papers,
+    with the layouts kept from earlier documents and with none kept."""
+    from reportlab.platypus import Paragraph
+
+    from ignite.report.worksheet import pdf
+
+    def draw(paper: str) -> bytes:
+        return render_worksheet(
+            fx.full_results(), fx.RULES, fx.METHODS, fx.FULL_ROOM_FILE, paper=paper
+        )
+
+    monkeypatch.setattr(pdf, "_PARSED", {})
+    monkeypatch.setattr(pdf, "_BROKEN", {})
+    kept = {paper: (draw(paper), draw(paper)) for paper in ("A4", "letter")}
+    monkeypatch.setattr(pdf, "Para", Paragraph)
+    for paper, (first, again) in kept.items():
+        assert first == again == draw(paper), paper
+    assert kept["A4"][0] == full_pdf
+
+
 def test_bytes_do_not_depend_on_the_environment(full_pdf: bytes) -> None:
     code = (
         "import sys; sys.path[:0] = [sys.argv[1], sys.argv[2]];"
