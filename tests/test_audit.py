@@ -317,6 +317,28 @@ def test_two_rooms_with_one_worksheet_name_keep_both(tmp_path: Path) -> None:
         assert sha256(out / row["worksheet"]) == row["worksheet_sha256"]
 
 
+def test_an_error_is_recorded_without_memory_addresses(
+    site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    """A Python object's repr names its address, which changes from run to run: the
+    register and summary must come out the same each time (regression test of our own)."""
+    import ignite.pipeline
+
+    real = ignite.pipeline.evaluate_room
+
+    def failing(path: Path, book: Any, sampling: Any = None) -> Any:
+        if path.name == "t1.yaml":
+            raise ValueError(f"cannot place {object()!r}")
+        return real(path, book, sampling)
+
+    monkeypatch.setattr(ignite.pipeline, "evaluate_room", failing)
+    out = tmp_path / "out"
+    audit(site, "-o", out, "--jobs", "1")
+    problems = {r["file"]: r for r in csv_rows(out / REGISTER_CSV)}["t1.yaml"]["problems"]
+    assert "ValueError: cannot place <object object>" in problems
+    assert "0x" not in problems
+
+
 def test_an_internal_error_is_listed_and_the_rest_carry_on(
     site: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
 ) -> None:

@@ -449,3 +449,36 @@ def test_each_purpose_has_its_own_document_and_decision(purpose, heading, verdic
     for other in ("Do not start the list", "Do not accept the room", "Stop lists in this room"):
         if not decision.startswith(other):
             assert other not in text
+
+
+@pytest.mark.parametrize("paper", ["A4", "letter"])
+def test_a_long_list_plan_fits_either_paper(paper: str, tmp_path: Path) -> None:
+    """Nine cases: the plan's timelines are drawn in blocks, each of which must fit the
+    page of the paper chosen (a block of eight was taller than a letter page and stopped
+    the worksheet). Regression test of our own."""
+    import copy
+
+    import yaml
+
+    from ignite import pipeline
+    from ignite.room.ranges import Sampling
+
+    source = ROOT / "sample_rooms" / "day-surgery-head-neck.yaml"
+    room = yaml.safe_load(source.read_text(encoding="utf-8"))
+    first = room["cases"][0]
+    room["cases"] = [{**copy.deepcopy(first), "id": f"L{n}"} for n in range(1, 10)]
+    room.pop("electrical", None)
+    path = tmp_path / "nine-cases.yaml"
+    path.write_text(yaml.safe_dump(room, allow_unicode=True, sort_keys=False), encoding="utf-8")
+    book = pipeline.open_rulebook()
+    bound, results = pipeline.evaluate_room(path, book, Sampling(nominal=True))
+    pdf = render_worksheet(
+        results,
+        pipeline.rule_rows(book, set(bound.consulted)),
+        pipeline.METHODS,
+        path.read_text(encoding="utf-8"),
+        paper=paper,
+    )
+    text = " ".join(page.extract_text() for page in PdfReader(io.BytesIO(pdf)).pages)
+    for n in range(1, 10):
+        assert f"Case L{n}:" in text

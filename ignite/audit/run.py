@@ -28,6 +28,7 @@ can say what changed (`ignite.audit.compare`).
 from __future__ import annotations
 
 import os
+import re
 import shutil
 import signal
 import tempfile
@@ -167,6 +168,13 @@ def discover_rooms(folder: Path) -> list[Path]:
 # --------------------------------------------------------------------------- one room
 
 
+def _said(exc: BaseException) -> str:
+    """An error as the register records it: its kind and message, without the memory
+    addresses an object's repr carries (" at 0x7f..."), so that the same rooms give the
+    same register each run."""
+    return re.sub(r" at 0x[0-9a-fA-F]+", "", f"{type(exc).__name__}: {exc}")
+
+
 _WORKER: dict[str, Any] = {}
 
 
@@ -179,7 +187,7 @@ def _start_worker(rules_dir: str | None, digest: str) -> None:
         _prepare(_open_book(rules_dir), digest)
     except Exception as exc:  # reported on every room, never lost in a broken pool
         _WORKER.clear()
-        _WORKER["failure"] = f"the worker could not load the rules: {type(exc).__name__}: {exc}"
+        _WORKER["failure"] = f"the worker could not load the rules: {_said(exc)}"
 
 
 def _open_book(rules_dir: str | None) -> Rulebook:
@@ -254,7 +262,7 @@ def assess_room(
         return outcome(
             ERROR,
             [
-                f"{file}: not assessed: internal error {type(exc).__name__}: {exc} "
+                f"{file}: not assessed: internal error {_said(exc)} "
                 "(please report it with the room file)"
             ],
         )
@@ -271,10 +279,7 @@ def assess_room(
     except Exception as exc:
         return outcome(
             ERROR,
-            [
-                f"{file}: assessed, but the worksheet could not be written: "
-                f"{type(exc).__name__}: {exc}"
-            ],
+            [f"{file}: assessed, but the worksheet could not be written: {_said(exc)}"],
             results=results,
         )
     return outcome(
@@ -530,8 +535,8 @@ def _outcome(future: Future[RoomRun], task: Task) -> RoomRun:
             file,
             ERROR,
             problems=(
-                f"{file}: not assessed: the worker process stopped "
-                f"({type(exc).__name__}: {exc}); run the audit again",
+                f"{file}: not assessed: the worker process stopped ({_said(exc)}); "
+                "run the audit again",
             ),
         )
 

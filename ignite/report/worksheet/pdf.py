@@ -875,7 +875,9 @@ def _appendix(
 PLAN_LABEL_WIDTH = 62.0  # [pt] the row names at the left of the timelines
 PLAN_ROW = 8.0  # [pt] one bar's row
 PLAN_CASE_GAP = 9.0  # [pt] between two cases
-PLAN_CASES_A_BLOCK = 8  # cases drawn on one axis: a block always fits a page
+PLAN_CASES_A_BLOCK = 8  # most cases drawn on one axis (fewer where a page holds fewer)
+PLAN_CASE_HEIGHT = 35.0 + 3 * PLAN_ROW + 16.0  # [pt] one case's block of three bars
+PLAN_AXIS_ROOM = 30.0  # [pt] the shared axis under a block
 PLAN_FILLS = {  # grey levels: the row's name, not its shade, says what a bar is
     "wet": colors.Color(0.55, 0.55, 0.55),
     "pocket": colors.Color(0.35, 0.35, 0.35),
@@ -903,9 +905,8 @@ class _Levels:
 def _plan_drawing(plan: Plan, width: float) -> Drawing:
     """The cases' timelines on one shared axis, one block of three bars a case."""
     left, right = PLAN_LABEL_WIDTH, width - 30.0
-    per_case = 35.0 + 3 * PLAN_ROW + 16.0
-    axis_room = 30.0
-    height = len(plan.cases) * (per_case + PLAN_CASE_GAP) + axis_room
+    axis_room = PLAN_AXIS_ROOM
+    height = len(plan.cases) * (PLAN_CASE_HEIGHT + PLAN_CASE_GAP) + axis_room
     drawing = Drawing(width, height)
     drawing.initialFontName = FONT  # the renderer's starting font; the default is not embedded
     span = right - left
@@ -1018,17 +1019,22 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
     return drawing
 
 
-def _plan(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]) -> list[Flowable]:
+def _plan(
+    view: model.WorksheetView, width: float, height: float, st: dict[str, ParagraphStyle]
+) -> list[Flowable]:
     if view.plan is None:
         return []
     story: list[Flowable] = [
         _p(say.SECTION_PLAN, st["h2"]),
         _p(say.PLAN_INTRO, st["small"]),
     ]
-    # a long list is drawn in blocks that each fit a page, each with the shared axis
+    # a long list is drawn in blocks that each fit a page (`height`, the frame's), each with
+    # the shared axis
     cases = view.plan.cases
-    for start in range(0, len(cases), PLAN_CASES_A_BLOCK):
-        block = dataclasses.replace(view.plan, cases=cases[start : start + PLAN_CASES_A_BLOCK])
+    fits = int((height - PLAN_AXIS_ROOM) // (PLAN_CASE_HEIGHT + PLAN_CASE_GAP))
+    per_block = max(1, min(PLAN_CASES_A_BLOCK, fits))
+    for start in range(0, len(cases), per_block):
+        block = dataclasses.replace(view.plan, cases=cases[start : start + per_block])
         story.append(_plan_drawing(block, width))
     notes = [
         f"{case.label}: " + "; ".join(m.note for m in case.marks if m.note)
@@ -1447,7 +1453,7 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     width = doc.width
     story: list[Flowable] = []
     story += _header(view, width, st)
-    story += _plan(view, width, st)
+    story += _plan(view, width, doc.height, st)
     story += _actions(view, width, st)
     story += _glossary(view, width, st)
     story += [CondPageBreak(60 * mm)]
