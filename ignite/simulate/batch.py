@@ -348,7 +348,10 @@ class _Batch:
         self.volatile = np.array(
             [vapour_pressure(c, float(given.skin_temperature[0])) > 0.0 for c in self.cas]
         )
+        self.all_volatile = bool(self.volatile.all())
+        self.volatile_count = int(self.volatile.sum())
         self.flammable = np.array(analysis.flammable)
+        self.flammable_weights = np.where(self.flammable, self.molar_mass, 0.0)  # [kg/mol]
         self.lfl = np.array([lfl if lfl is not None else math.inf for lfl in analysis.lfls])
         self.molar_volume = np.array(analysis.molar_volumes)
         x0 = np.array(analysis.mole_fractions)
@@ -460,16 +463,18 @@ class _Batch:
     def flammable_mass(self, moles: Array) -> Array:
         import numpy as np
 
-        weights = np.where(self.flammable, self.molar_mass, 0.0)
-        found: Array = (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
+        found: Array = (np.maximum(moles, 0.0) * self.flammable_weights).sum(axis=(1, 2))
         return found
 
     def left(self, moles: Array) -> Array:
         import numpy as np
 
-        with np.errstate(invalid="ignore", divide="ignore"):
-            share = self.flammable_mass(moles) / self.flammable_mass0
-        return np.clip(np.nan_to_num(share), 0.0, 1.0)
+        # (as np.clip(np.nan_to_num(share), 0, 1): a sample that applied no flammable
+        # liquid has none left)
+        applied = self.flammable_mass0 > 0.0
+        share = self.flammable_mass(moles) / np.where(applied, self.flammable_mass0, 1.0)
+        found: Array = np.where(applied, np.minimum(np.maximum(share, 0.0), 1.0), 0.0)
+        return found
 
     def pocket_index(self, concentrations: Array) -> Array:
         import numpy as np
@@ -514,7 +519,8 @@ class _Batch:
         gammas, d_ln_gammas = _gammas_sloped(self.cas, t, x[..., 0])
         psat, heats = _lookups(self.cas, t)
         volatile = self.volatile
-        partial = np.where(volatile, x * gammas * psat, 0.0)
+        every = self.all_volatile  # (then the masks below change nothing)
+        partial = x * gammas * psat if every else np.where(volatile, x * gammas * psat, 0.0)
         fractions = partial / self.pressure
         surface_mass = (1.0 - _across(fractions)) * AIR_MOLAR_MASS + fractions @ self.molar_mass
         far_fractions = np.maximum(far, 0.0) * GAS_CONSTANT * self.air[:, None] / self.pressure
@@ -537,9 +543,11 @@ class _Batch:
         k_mixed = np.cbrt(k_forced**3 + k_natural**3)
         above_floor = k_mixed > self.floor
         k_open = np.where(above_floor, k_mixed, self.floor)
-        count = int(volatile.sum())
-        h_sum = _across(np.where(volatile, k_open * self.heat_factor, 0.0))
-        k = np.where(volatile, 1.0 / (1.0 / k_open + self.layer_resistance), 0.0)
+        count = self.volatile_count
+        heat = k_open * self.heat_factor
+        h_sum = _across(heat if every else np.where(volatile, heat, 0.0))
+        k = 1.0 / (1.0 / k_open + self.layer_resistance)
+        k = k if every else np.where(volatile, k, 0.0)
         self.transfer = k
         at_surface = partial / (GAS_CONSTANT * t)[..., None]
         driving = at_surface - far[:, None, :]
@@ -566,11 +574,12 @@ class _Batch:
             d_ln_lift = np.where(buoyancy > 0.0, d_buoyancy / buoyancy, 0.0)
             d_k_natural = k_natural * d_ln_lift[..., None] * np.where(laminar, 0.25, 1.0 / 3.0)
             d_k_mixed = np.where(k_mixed > 0.0, k_natural**2 * d_k_natural / k_mixed**2, 0.0)
-        d_k_open = np.where(above_floor & volatile, d_k_mixed, 0.0)
+        d_k_open = np.where(above_floor if every else above_floor & volatile, d_k_mixed, 0.0)
         d_h_sum = _across(d_k_open * self.heat_factor)
         d_k = d_k_open * (k / k_open) ** 2
         d_at_surface = at_surface * (d_ln_partial - 1.0 / t[..., None])
-        d_fluxes = np.where(volatile, d_k * driving + k * d_at_surface, 0.0)
+        d_fluxes = d_k * driving + k * d_at_surface
+        d_fluxes = d_fluxes if every else np.where(volatile, d_fluxes, 0.0)
         d_latent = _across(d_fluxes * heats)
         d_h_open = d_h_sum / max(count, 1)
         with np.errstate(divide="ignore", invalid="ignore"):
@@ -742,7 +751,7 @@ def _step_size(model: _Batch, moles: Array, change: Array, cap: Array) -> Array:
     e-folding time), at most STEP_MAX and `cap`."""
     import numpy as np
 
-    weights = np.where(model.flammable, model.molar_mass, 0.0)
+    weights = model.flammable_weights
     mass = (np.maximum(moles, 0.0) * weights).sum(axis=(1, 2))
     loss = (-np.minimum(change, 0.0) * weights).sum(axis=(1, 2))
     with np.errstate(divide="ignore", invalid="ignore"):
