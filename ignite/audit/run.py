@@ -75,6 +75,7 @@ from ignite.report.worksheet.summary import render_summary
 from ignite.room.ranges import Sampling
 from ignite.rules.rulebook import Rulebook
 from ignite.simulate.compute import METHODS
+from ignite.simulate.kept import prepare as prepare_solving
 
 ROOM_SUFFIXES = (".yaml", ".yml")
 STAGING_PREFIX = ".ignite-audit-staging-"
@@ -442,6 +443,7 @@ def _run_all(
             _WORKER.clear()
     else:
         prepare_drawing()  # once here, not in each worker (forked, they inherit it)
+        prepare_solving()
         initargs = (str(rules_dir) if rules_dir else None, book.digest)
         queue: deque[Task] = deque(tasks)
         while queue:  # a fresh pool after each room stopped for its time limit

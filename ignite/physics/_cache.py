@@ -99,6 +99,12 @@ def _versions() -> tuple[tuple[str, str], ...]:
     )
 
 
+def prepare() -> None:
+    """Work out the versions every entry is read under now (importing the property
+    libraries): a process that forks workers does so first, and each begins with them."""
+    _versions()
+
+
 Versions = tuple[tuple[str, str], ...]
 """What an entry depends on besides its key: (name, version or digest) pairs."""
 

@@ -42,6 +42,15 @@ BUDGET = 256 * 2**20
 """Bytes the kept solves may hold; past it the least recently used go."""
 
 
+def prepare() -> None:
+    """Work out now what reading a kept solve back needs (the libraries' versions, the
+    code's digest; the property libraries imported). An audit does so before it starts its
+    worker processes: forked, each begins with them rather than paying for them on its
+    first room."""
+    _cache.prepare()
+    solver_versions()
+
+
 @lru_cache(maxsize=1)
 def solver_versions() -> _cache.Versions:
     """The code and libraries a solve's result depends on."""

@@ -45,6 +45,8 @@ def prepare_drawing() -> None:
     """Import reportlab and register the embedded fonts now rather than at the first
     worksheet. An audit does so before it starts its worker processes: forked, each
     begins with them, and the audit's own summary needs them anyway."""
+    import reportlab.graphics.renderPDF  # noqa: F401  (drawn charts; imported at the first)
+
     from ignite.report.worksheet.pdf import register_fonts
 
     register_fonts()
