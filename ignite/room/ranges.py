@@ -94,13 +94,18 @@ class Distribution:
             return np.where(u < split, rising, falling)
         if self.spread == 0.0:
             return np.full_like(u, self.central)
-        from scipy.special import ndtr, ndtri
+        # the standard normal from the standard library (Wichura's AS 241 for the inverse):
+        # within a few units in the last place of scipy.special's ndtri, without importing
+        # scipy (a fifth of a second) into a run whose solves are kept
+        from statistics import NormalDist
 
-        lower = ndtr((self.low - self.central) / self.spread)
-        upper = ndtr((self.high - self.central) / self.spread)
+        unit = NormalDist()
+        lower = unit.cdf((self.low - self.central) / self.spread)
+        upper = unit.cdf((self.high - self.central) / self.spread)
         inside = lower + u * (upper - lower)
         inside = np.clip(inside, 1e-12, 1.0 - 1e-12)
-        found = self.central + self.spread * ndtri(inside)
+        normal = np.array([unit.inv_cdf(float(p)) for p in inside.ravel()]).reshape(inside.shape)
+        found = self.central + self.spread * normal
         return np.clip(found, self.low, self.high)
 
     def describe(self) -> str:
