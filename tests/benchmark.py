@@ -18,8 +18,8 @@ operating system's accounting of the finished child) and in wall time:
   drawn in one process in turn (the evaluated rooms at hand), per room, first and after;
 - an audit of 100 generated rooms with the default --jobs (one process per CPU): target 8 s
   or less on 2 cores; solved again, then with the solves kept (three runs, the median
-  printed; the generated rooms repeat
-  the sample rooms' cases, so kept solves serve most of them even in the first run).
+  printed; the generated rooms repeat the sample rooms' cases, so kept solves serve most
+  of them even in the first run).
 - ranges (issue 12): one case's drying over 1000 samples, warm (target 1 s), and a room
   with three cases sampled, cold, against the same room at its central values (target 3x).
 
