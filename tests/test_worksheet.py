@@ -453,9 +453,9 @@ def test_each_purpose_has_its_own_document_and_decision(purpose, heading, verdic
 
 @pytest.mark.parametrize("paper", ["A4", "letter"])
 def test_a_long_list_plan_fits_either_paper(paper: str, tmp_path: Path) -> None:
-    """Nine cases: the plan's timelines are drawn in blocks, each of which must fit the
-    page of the paper chosen (a block of eight was taller than a letter page and stopped
-    the worksheet). Regression test of our own."""
+    """Nine cases: the plan's timelines split between cases where a page ends, on either
+    paper (a block of eight was taller than a letter page and stopped the worksheet, and a
+    long list left page 1 empty below its header). Regression test of our own."""
     import copy
 
     import yaml
@@ -479,6 +479,8 @@ def test_a_long_list_plan_fits_either_paper(paper: str, tmp_path: Path) -> None:
         path.read_text(encoding="utf-8"),
         paper=paper,
     )
-    text = " ".join(page.extract_text() for page in PdfReader(io.BytesIO(pdf)).pages)
+    pages = [page.extract_text() for page in PdfReader(io.BytesIO(pdf)).pages]
+    assert "Case L1:" in pages[0]  # the plan starts under the header
+    text = " ".join(pages)
     for n in range(1, 10):
         assert f"Case L{n}:" in text

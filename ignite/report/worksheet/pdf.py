@@ -875,7 +875,6 @@ def _appendix(
 PLAN_LABEL_WIDTH = 62.0  # [pt] the row names at the left of the timelines
 PLAN_ROW = 8.0  # [pt] one bar's row
 PLAN_CASE_GAP = 9.0  # [pt] between two cases
-PLAN_CASES_A_BLOCK = 8  # most cases drawn on one axis (fewer where a page holds fewer)
 PLAN_CASE_HEIGHT = 35.0 + 3 * PLAN_ROW + 16.0  # [pt] one case's block of three bars
 PLAN_AXIS_ROOM = 30.0  # [pt] the shared axis under a block
 PLAN_FILLS = {  # grey levels: the row's name, not its shade, says what a bar is
@@ -1019,23 +1018,45 @@ def _plan_drawing(plan: Plan, width: float) -> Drawing:
     return drawing
 
 
-def _plan(
-    view: model.WorksheetView, width: float, height: float, st: dict[str, ParagraphStyle]
-) -> list[Flowable]:
+class _PlanTimelines(Flowable):
+    """The cases' timelines on one shared axis (`_plan_drawing`), split between two cases
+    where a page ends: the cases that fit the space left go there with an axis of their
+    own, the rest on the next page (a reportlab Drawing cannot split, so a long list left
+    page 1 empty below its header, and one taller than a page stopped the worksheet)."""
+
+    def __init__(self, plan: Plan, width: float) -> None:
+        super().__init__()
+        self.plan = plan
+        self.drawing = _plan_drawing(plan, width)
+        self.width, self.height = self.drawing.width, self.drawing.height
+
+    def wrap(self, available_width: float, available_height: float) -> tuple[float, float]:
+        return self.width, self.height
+
+    def split(self, available_width: float, available_height: float) -> list[Flowable]:
+        cases = self.plan.cases
+        fits = int((available_height - PLAN_AXIS_ROOM) // (PLAN_CASE_HEIGHT + PLAN_CASE_GAP))
+        if fits < 1 or len(cases) < 2:
+            return []  # on the next page
+        if fits >= len(cases):
+            return [self]
+        return [
+            _PlanTimelines(dataclasses.replace(self.plan, cases=cases[:fits]), self.width),
+            _PlanTimelines(dataclasses.replace(self.plan, cases=cases[fits:]), self.width),
+        ]
+
+    def drawOn(self, canvas: Canvas, x: float, y: float, _sW: float = 0) -> None:
+        self.drawing.drawOn(canvas, x, y, _sW)
+
+
+def _plan(view: model.WorksheetView, width: float, st: dict[str, ParagraphStyle]) -> list[Flowable]:
     if view.plan is None:
         return []
     story: list[Flowable] = [
         _p(say.SECTION_PLAN, st["h2"]),
         _p(say.PLAN_INTRO, st["small"]),
     ]
-    # a long list is drawn in blocks that each fit a page (`height`, the frame's), each with
-    # the shared axis
-    cases = view.plan.cases
-    fits = int((height - PLAN_AXIS_ROOM) // (PLAN_CASE_HEIGHT + PLAN_CASE_GAP))
-    per_block = max(1, min(PLAN_CASES_A_BLOCK, fits))
-    for start in range(0, len(cases), per_block):
-        block = dataclasses.replace(view.plan, cases=cases[start : start + per_block])
-        story.append(_plan_drawing(block, width))
+    story.append(_PlanTimelines(view.plan, width))
     notes = [
         f"{case.label}: " + "; ".join(m.note for m in case.marks if m.note)
         for case in view.plan.cases
@@ -1453,7 +1474,7 @@ def render(view: model.WorksheetView, paper: str = "A4") -> bytes:
     width = doc.width
     story: list[Flowable] = []
     story += _header(view, width, st)
-    story += _plan(view, width, doc.height, st)
+    story += _plan(view, width, st)
     story += _actions(view, width, st)
     story += _glossary(view, width, st)
     story += [CondPageBreak(60 * mm)]
