@@ -183,18 +183,6 @@ def _property_table(cas: str, kind: str) -> tuple[float, Array]:
     return float(temperatures[0]), table
 
 
-def _lookup(cas: str, kind: str, temperature: Array) -> Array:
-    import numpy as np
-
-    start, table = _property_table(cas, kind)
-    position = np.clip((temperature - start) / T_GRID, 0.0, len(table) - 1.000001)
-    low = np.floor(position).astype(int)
-    weight = position - low
-    between = (1.0 - weight) * table[low] + weight * table[low + 1]
-    found: Array = np.exp(between) if kind == "psat" else between
-    return found
-
-
 @lru_cache(maxsize=32)
 def _stacked_tables(cas: tuple[str, ...]) -> tuple[float, Array]:
     """(first T, ln P_sat of each component then ΔH_vap of each on T_GRID): shape
@@ -206,7 +194,8 @@ def _stacked_tables(cas: tuple[str, ...]) -> tuple[float, Array]:
 
 
 def _lookups(cas: tuple[str, ...], temperature: Array) -> tuple[Array, Array]:
-    """(P_sat, ΔH_vap) of every component at `temperature`, shapes (..., n): as `_lookup`."""
+    """(P_sat, ΔH_vap) of every component at `temperature`, shapes (..., n): linear in T
+    between the table's points (ln P_sat, so P_sat is read log-linear)."""
     import numpy as np
 
     start, table = _stacked_tables(cas)
@@ -361,7 +350,7 @@ class _Batch:
         self.room = np.zeros((s, n))
         if WATER_CAS in self.cas:
             water = self.cas.index(WATER_CAS)
-            p_water = given.relative_humidity * _lookup(WATER_CAS, "psat", self.air)
+            p_water = given.relative_humidity * _lookups(self.cas, self.air)[0][:, water]
             self.room[:, water] = p_water / (GAS_CONSTANT * self.air)
         self.flammable_mass0 = self.flammable_mass(self.initial)
         self.dry_mass = assumptions.dry_fraction * self.flammable_mass0
